@@ -1,0 +1,458 @@
+/**
+ * DXF bytes or text → typed entities in drawing units (lib/dxf/types.ts), or a
+ * LayoutError saying what to fix. Parsing is dxf-parser's; this module adds the
+ * checks a web upload needs (size, empty, truncated, binary DXF, DWG), expands
+ * INSERTs (nested, arrays, mirror), resolves OCS mirroring, and turns every
+ * curve into line and arc pieces.
+ */
+import DxfParser from "dxf-parser";
+import type { IDxf, IEntity, IBlock } from "dxf-parser";
+import { LayoutError } from "../errors";
+import { flattenNurbs, flattenParametric, minRadiusOfPolyline, type Pt } from "./curves";
+import { PolylineWithWidths, SplineWithWeights, type RawPolyline, type RawSpline } from "./handlers";
+import type { ArcPiece, DrawingEntity, DxfDrawing, Piece } from "./types";
+
+/** Largest layout accepted by default, bytes (25 MiB). */
+export const MAX_LAYOUT_BYTES = 25 * 1024 * 1024;
+/** Most entities after block expansion; protects against array-of-array bombs. */
+export const MAX_EXPANDED_ENTITIES = 2_000_000;
+const MAX_INSERT_DEPTH = 16;
+
+export interface ReadDxfOptions {
+  /** Size limit in bytes (default MAX_LAYOUT_BYTES). */
+  maxBytes?: number;
+  /** Chord tolerance for splines and ellipses, drawing units. */
+  chordTolerance: number;
+}
+
+/** 2-D affine map: x' = a·x + b·y + e, y' = c·x + d·y + f. */
+type Affine = readonly [number, number, number, number, number, number];
+const IDENTITY: Affine = [1, 0, 0, 1, 0, 0];
+
+const compose = (m: Affine, n: Affine): Affine => [
+  m[0] * n[0] + m[1] * n[2],
+  m[0] * n[1] + m[1] * n[3],
+  m[2] * n[0] + m[3] * n[2],
+  m[2] * n[1] + m[3] * n[3],
+  m[0] * n[4] + m[1] * n[5] + m[4],
+  m[2] * n[4] + m[3] * n[5] + m[5],
+];
+const apply = (m: Affine, x: number, y: number): Pt => ({ x: m[0] * x + m[1] * y + m[4], y: m[2] * x + m[3] * y + m[5] });
+const det = (m: Affine) => m[0] * m[3] - m[1] * m[2];
+const isSimilarity = (m: Affine) => {
+  const s2 = Math.abs(det(m));
+  return Math.abs(m[0] * m[1] + m[2] * m[3]) <= 1e-9 * s2 && Math.abs(m[0] * m[0] + m[2] * m[2] - (m[1] * m[1] + m[3] * m[3])) <= 1e-9 * s2;
+};
+/** OCS with extrusion (0,0,−1) is the WCS mirrored in x (DXF arbitrary-axis algorithm for that one normal). */
+const MIRROR_X: Affine = [-1, 0, 0, 1, 0, 0];
+
+const TAU = 2 * Math.PI;
+const startsWith = (bytes: Uint8Array, text: string) => {
+  if (bytes.length < text.length) return false;
+  for (let i = 0; i < text.length; i++) if (bytes[i] !== text.charCodeAt(i)) return false;
+  return true;
+};
+
+/**
+ * Check the raw upload and decode it to text.
+ * @throws LayoutError empty_file, too_large, binary_dxf, dwg_file.
+ */
+export function decodeLayout(input: string | Uint8Array, maxBytes = MAX_LAYOUT_BYTES): string {
+  const size = typeof input === "string" ? input.length : input.byteLength;
+  if (size > maxBytes) {
+    throw new LayoutError(
+      "too_large",
+      `The layout is ${(size / 1048576).toFixed(1)} MiB; the limit is ${(maxBytes / 1048576).toFixed(1)} MiB. Remove unused blocks and layers, or purge the drawing, and export again.`,
+    );
+  }
+  const head = typeof input === "string" ? new TextEncoder().encode(input.slice(0, 32)) : input.subarray(0, 32);
+  if (startsWith(head, "AutoCAD Binary DXF")) {
+    throw new LayoutError("binary_dxf", "This is a binary DXF. Export the layout as an ASCII DXF (R12, R2000 or later) and upload that.");
+  }
+  if (startsWith(head, "AC10") || startsWith(head, "AC1.")) {
+    throw new LayoutError("dwg_file", "This is a DWG drawing, not a DXF. Save or export it as an ASCII DXF and upload that.");
+  }
+  const text = typeof input === "string" ? input : new TextDecoder("utf-8").decode(input);
+  if (text.trim() === "") throw new LayoutError("empty_file", "The layout file is empty. Upload an ASCII DXF export of the chip layout.");
+  if (!/^\s*0\s*\r?\n\s*SECTION\s*$/m.test(text.slice(0, 65536))) {
+    throw new LayoutError("not_dxf", "This file is not a DXF drawing (no SECTION found). Upload an ASCII DXF export of the chip layout.");
+  }
+  if (!/(^|\n)\s*0\s*\r?\n\s*EOF\s*$/.test(text.slice(-64))) {
+    throw new LayoutError("truncated_file", "The DXF ends before its EOF marker: the file is truncated. Upload the complete file again.");
+  }
+  return text;
+}
+
+function parseText(text: string): IDxf {
+  const parser = new DxfParser();
+  // dxf-parser's handler type names its own classes; ours have the same shape.
+  parser.registerEntityHandler(PolylineWithWidths as never);
+  parser.registerEntityHandler(SplineWithWeights as never);
+  const originalError = console.error;
+  try {
+    // dxf-parser reports some oddities with console.error and carries on; keep them off the CLI's output.
+    console.error = () => undefined;
+    const dxf = parser.parseSync(text);
+    if (!dxf) throw new Error("no result");
+    return dxf;
+  } catch (e) {
+    const msg = e instanceof Error ? e.message : String(e);
+    if (/Unexpected end of input/i.test(msg)) {
+      throw new LayoutError("truncated_file", "The DXF ends in the middle of a section: the file is truncated. Upload the complete file again.");
+    }
+    throw new LayoutError("unreadable_dxf", `The DXF could not be read (${msg.slice(0, 200)}). Export it again as an ASCII DXF.`);
+  } finally {
+    console.error = originalError;
+  }
+}
+
+type AnyEntity = IEntity & Record<string, unknown>;
+
+interface Ctx {
+  blocks: Record<string, IBlock>;
+  tol: number;
+  out: DrawingEntity[];
+  counts: Map<string, Record<string, number>>;
+  notes: Map<string, { code: string; message: string; n: number }>;
+  expanded: number;
+}
+
+function note(ctx: Ctx, code: string, message: string) {
+  const n = ctx.notes.get(code);
+  if (n) n.n++;
+  else ctx.notes.set(code, { code, message, n: 1 });
+}
+
+function count(ctx: Ctx, layer: string, type: string) {
+  let c = ctx.counts.get(layer);
+  if (!c) ctx.counts.set(layer, (c = {}));
+  c[type] = (c[type] ?? 0) + 1;
+  if (++ctx.expanded > MAX_EXPANDED_ENTITIES) {
+    throw new LayoutError("too_many_entities", `The layout expands to more than ${MAX_EXPANDED_ENTITIES.toLocaleString("en")} entities (block arrays inside arrays?). Explode or simplify the blocks and export again.`);
+  }
+}
+
+const normSweep = (s: number) => {
+  let v = s % TAU;
+  if (v <= 1e-12) v += TAU;
+  return v;
+};
+
+function arcEnd(a: ArcPiece): Pt {
+  const t = a.a0 + a.sweep;
+  return { x: a.cx + a.r * Math.cos(t), y: a.cy + a.r * Math.sin(t) };
+}
+
+/** Sample an arc as points (for arcs under a non-uniform scale, which become ellipses). */
+function sampleArc(a: ArcPiece, tol: number): Pt[] {
+  const step = a.r > tol ? 2 * Math.acos(1 - tol / a.r) : Math.PI / 4;
+  const n = Math.max(2, Math.min(4096, Math.ceil(Math.abs(a.sweep) / Math.min(step, Math.PI / 8))));
+  const pts: Pt[] = [];
+  for (let i = 0; i <= n; i++) {
+    const t = a.a0 + (a.sweep * i) / n;
+    pts.push({ x: a.cx + a.r * Math.cos(t), y: a.cy + a.r * Math.sin(t) });
+  }
+  return pts;
+}
+
+function linesThrough(pts: Pt[], w0: number | null, w1: number | null): Piece[] {
+  const pieces: Piece[] = [];
+  let total = 0;
+  for (let i = 1; i < pts.length; i++) total += Math.hypot(pts[i].x - pts[i - 1].x, pts[i].y - pts[i - 1].y);
+  let s = 0;
+  const widthAt = (u: number) => (w0 === null || w1 === null ? (w0 ?? w1) : w0 + (w1 - w0) * u);
+  for (let i = 1; i < pts.length; i++) {
+    const len = Math.hypot(pts[i].x - pts[i - 1].x, pts[i].y - pts[i - 1].y);
+    if (len === 0) continue;
+    const a = total > 0 ? s / total : 0;
+    s += len;
+    const b = total > 0 ? s / total : 1;
+    pieces.push({ kind: "line", x0: pts[i - 1].x, y0: pts[i - 1].y, x1: pts[i].x, y1: pts[i].y, w0: widthAt(a), w1: widthAt(b) });
+  }
+  return pieces;
+}
+
+/** Transform pieces by m; arcs stay arcs under similarities, otherwise they are flattened. */
+function transformPieces(pieces: Piece[], m: Affine, tol: number): { pieces: Piece[]; flattenedRadius: number | null } {
+  if (m === IDENTITY) return { pieces, flattenedRadius: null };
+  const s = Math.sqrt(Math.abs(det(m)));
+  const ws = (w: number | null) => (w === null ? null : w * s);
+  const similar = isSimilarity(m);
+  const out: Piece[] = [];
+  let flattenedRadius: number | null = null;
+  for (const p of pieces) {
+    if (p.kind === "line") {
+      const a = apply(m, p.x0, p.y0);
+      const b = apply(m, p.x1, p.y1);
+      out.push({ kind: "line", x0: a.x, y0: a.y, x1: b.x, y1: b.y, w0: ws(p.w0), w1: ws(p.w1) });
+    } else if (similar) {
+      const c = apply(m, p.cx, p.cy);
+      const st = apply(m, p.cx + p.r * Math.cos(p.a0), p.cy + p.r * Math.sin(p.a0));
+      out.push({ kind: "arc", cx: c.x, cy: c.y, r: p.r * s, a0: Math.atan2(st.y - c.y, st.x - c.x), sweep: det(m) < 0 ? -p.sweep : p.sweep, w0: ws(p.w0), w1: ws(p.w1) });
+    } else {
+      const pts = sampleArc(p, tol / Math.max(1e-300, s)).map((q) => apply(m, q.x, q.y));
+      const r = minRadiusOfPolyline(pts);
+      if (r !== null) flattenedRadius = flattenedRadius === null ? r : Math.min(flattenedRadius, r);
+      out.push(...linesThrough(pts, ws(p.w0), ws(p.w1)));
+    }
+  }
+  return { pieces: out, flattenedRadius };
+}
+
+interface Vtx {
+  x: number;
+  y: number;
+  bulge: number;
+  sw: number | null;
+  ew: number | null;
+}
+
+/** Polyline vertices → pieces; a bulge b between two vertices is an arc of sweep 4·atan(b) (DXF reference, LWPOLYLINE group 42). */
+export function polylinePieces(verts: Vtx[], closed: boolean): Piece[] {
+  const pieces: Piece[] = [];
+  const n = verts.length;
+  const count = closed ? n : n - 1;
+  for (let i = 0; i < count; i++) {
+    const v = verts[i];
+    const u = verts[(i + 1) % n];
+    const chord = Math.hypot(u.x - v.x, u.y - v.y);
+    if (chord === 0) continue;
+    let w0 = v.sw;
+    let w1 = v.ew;
+    if (w0 === 0 && w1 === 0) w0 = w1 = null;
+    if (w0 === null && w1 !== null) w0 = w1;
+    if (w1 === null && w0 !== null) w1 = w0;
+    if (!v.bulge) {
+      pieces.push({ kind: "line", x0: v.x, y0: v.y, x1: u.x, y1: u.y, w0, w1 });
+      continue;
+    }
+    const b = v.bulge;
+    const sweep = 4 * Math.atan(b);
+    // Centre sits on the chord's left normal at (c/2)·(1 − b²)/(2b) from the chord midpoint.
+    const k = (1 - b * b) / (4 * b);
+    const cx = (v.x + u.x) / 2 - (u.y - v.y) * k;
+    const cy = (v.y + u.y) / 2 + (u.x - v.x) * k;
+    const r = Math.hypot(v.x - cx, v.y - cy);
+    pieces.push({ kind: "arc", cx, cy, r, a0: Math.atan2(v.y - cy, v.x - cx), sweep, w0, w1 });
+  }
+  return pieces;
+}
+
+function ellipsePoints(e: AnyEntity, tol: number): { pts: Pt[]; closed: boolean } | null {
+  const c = e.center as Pt | undefined;
+  const maj = e.majorAxisEndPoint as Pt | undefined;
+  const ratio = Number(e.axisRatio ?? 1);
+  if (!c || !maj) return null;
+  let t0 = Number(e.startAngle ?? 0);
+  let t1 = Number(e.endAngle ?? TAU);
+  const closed = Math.abs(normSweep(t1 - t0) - TAU) < 1e-9;
+  if (t1 <= t0) t1 += TAU;
+  if (closed) { t0 = 0; t1 = TAU; }
+  const ux = maj.x;
+  const uy = maj.y;
+  const vx = -maj.y * ratio;
+  const vy = maj.x * ratio;
+  const f = (t: number): Pt => ({ x: c.x + ux * Math.cos(t) + vx * Math.sin(t), y: c.y + uy * Math.cos(t) + vy * Math.sin(t) });
+  return { pts: flattenParametric(f, t0, t1, tol, Math.max(4, Math.ceil((t1 - t0) / (Math.PI / 8)))), closed };
+}
+
+function layerOf(entity: AnyEntity, parentLayer: string | null): string {
+  const own = typeof entity.layer === "string" && entity.layer !== "" ? entity.layer : "0";
+  // Entities on layer 0 inside a block take the layer of the INSERT (DXF block rule).
+  return own === "0" && parentLayer !== null ? parentLayer : own;
+}
+
+function stripMtext(text: string): string {
+  return text
+    .replace(/\\P/g, " ")
+    .replace(/\\[ACcFfHhLlOoKkQqTtWw][^;\\{}]*;?/g, "")
+    .replace(/\\S([^;]*);/g, "$1")
+    .replace(/\\~/g, " ")
+    .replace(/[{}]/g, "")
+    .replace(/\s+/g, " ")
+    .trim();
+}
+
+function pushPath(ctx: Ctx, layer: string, type: string, handle: string | null, pieces: Piece[], closed: boolean, m: Affine, curveRadius: number | null) {
+  if (pieces.length === 0) return;
+  const t = transformPieces(pieces, m, ctx.tol);
+  let radius = curveRadius === null ? null : curveRadius * Math.sqrt(Math.abs(det(m)));
+  if (t.flattenedRadius !== null) radius = radius === null ? t.flattenedRadius : Math.min(radius, t.flattenedRadius);
+  ctx.out.push({ kind: "path", layer, type, handle, pieces: t.pieces, closed, minCurveRadius: radius });
+}
+
+function walk(ctx: Ctx, entities: IEntity[], m: Affine, parentLayer: string | null, depth: number, stack: string[]) {
+  for (const raw of entities) {
+    const e = raw as AnyEntity;
+    if (e.inPaperSpace) continue;
+    const type = String(e.type ?? "UNKNOWN");
+    const layer = layerOf(e, parentLayer);
+    const handle = e.handle === undefined ? null : String(e.handle);
+    if (type === "INSERT") {
+      expandInsert(ctx, e, m, layer, depth, stack);
+      continue;
+    }
+    count(ctx, layer, type);
+    const ocs = Number((e.extrusionDirectionZ as number | undefined) ?? (e.extrusionDirection as Pt & { z?: number } | undefined)?.z ?? 1) < 0 ? compose(m, MIRROR_X) : m;
+    switch (type) {
+      case "LINE": {
+        const v = e.vertices as Pt[] | undefined;
+        if (!v || v.length < 2) break;
+        pushPath(ctx, layer, type, handle, [{ kind: "line", x0: v[0].x, y0: v[0].y, x1: v[1].x, y1: v[1].y, w0: null, w1: null }], false, m, null);
+        break;
+      }
+      case "ARC": {
+        const c = e.center as Pt;
+        const r = Number(e.radius);
+        const a0 = Number(e.startAngle ?? 0);
+        const sweep = normSweep(Number(e.endAngle ?? TAU) - a0);
+        pushPath(ctx, layer, type, handle, [{ kind: "arc", cx: c.x, cy: c.y, r, a0, sweep, w0: null, w1: null }], false, ocs, null);
+        break;
+      }
+      case "CIRCLE": {
+        const c = e.center as Pt;
+        const p = apply(m, c.x, c.y);
+        ctx.out.push({ kind: "circle", layer, type: "CIRCLE", handle, cx: p.x, cy: p.y, r: Number(e.radius) * Math.sqrt(Math.abs(det(m))) });
+        break;
+      }
+      case "LWPOLYLINE": {
+        const vs = (e.vertices as { x: number; y: number; bulge?: number; startWidth?: number; endWidth?: number }[] | undefined) ?? [];
+        const constW = typeof e.width === "number" ? e.width : null;
+        const verts = vs.map((v) => ({ x: v.x, y: v.y, bulge: v.bulge ?? 0, sw: v.startWidth ?? constW, ew: v.endWidth ?? constW }));
+        pushPath(ctx, layer, type, handle, polylinePieces(verts, Boolean(e.shape)), Boolean(e.shape), ocs, null);
+        break;
+      }
+      case "POLYLINE": {
+        const p = raw as unknown as RawPolyline;
+        if (p.flags & (16 | 64)) {
+          note(ctx, "mesh_skipped", "Polygon and polyface meshes are not channel geometry and were skipped.");
+          break;
+        }
+        const verts = p.vertices
+          .filter((v) => !(v.flags & 16))
+          .map((v) => ({ x: v.x, y: v.y, bulge: v.bulge, sw: v.startWidth ?? p.defaultStartWidth, ew: v.endWidth ?? p.defaultEndWidth }));
+        const closed = (p.flags & 1) !== 0;
+        pushPath(ctx, layer, type, handle, polylinePieces(verts, closed), closed, p.extrusionZ < 0 ? compose(m, MIRROR_X) : m, null);
+        break;
+      }
+      case "SPLINE": {
+        const s = raw as unknown as RawSpline;
+        let pts: Pt[] | null = null;
+        if (s.controlPoints.length > 0) {
+          const weights = s.weights.length === s.controlPoints.length ? s.weights : [];
+          pts = flattenNurbs(s.controlPoints, weights, s.knots, s.degree, ctx.tol);
+        }
+        if (!pts && s.fitPoints.length >= 2) {
+          note(ctx, "spline_fit_points", "A spline without a usable control polygon was read as straight pieces through its fit points.");
+          pts = s.fitPoints;
+        }
+        if (!pts) {
+          note(ctx, "spline_invalid", "A spline with inconsistent knots or control points was skipped.");
+          break;
+        }
+        const closed = (s.flags & 1) !== 0;
+        pushPath(ctx, layer, type, handle, linesThrough(pts, null, null), closed, m, minRadiusOfPolyline(pts));
+        break;
+      }
+      case "ELLIPSE": {
+        const el = ellipsePoints(e, ctx.tol);
+        if (!el) break;
+        pushPath(ctx, layer, type, handle, linesThrough(el.pts, null, null), el.closed, ocs, minRadiusOfPolyline(el.pts));
+        break;
+      }
+      case "TEXT": {
+        const useEnd = (Number(e.halign ?? 0) !== 0 || Number(e.valign ?? 0) !== 0) && e.endPoint;
+        const at = (useEnd ? e.endPoint : e.startPoint) as Pt | undefined;
+        if (!at) break;
+        const p = apply(m, at.x, at.y);
+        ctx.out.push({ kind: "text", layer, type: "TEXT", handle, x: p.x, y: p.y, text: String(e.text ?? "").trim() });
+        break;
+      }
+      case "MTEXT": {
+        const at = e.position as Pt | undefined;
+        if (!at) break;
+        const p = apply(m, at.x, at.y);
+        ctx.out.push({ kind: "text", layer, type: "MTEXT", handle, x: p.x, y: p.y, text: stripMtext(String(e.text ?? "")) });
+        break;
+      }
+      default:
+        break;
+    }
+  }
+}
+
+function expandInsert(ctx: Ctx, e: AnyEntity, m: Affine, layer: string, depth: number, stack: string[]) {
+  const name = String(e.name ?? "");
+  const block = ctx.blocks[name];
+  if (!block) {
+    note(ctx, "block_missing", `An INSERT refers to a block that is not in the file ("${name.slice(0, 60)}"); it was skipped.`);
+    return;
+  }
+  if (depth >= MAX_INSERT_DEPTH || stack.includes(name)) {
+    note(ctx, "block_recursion", `Block "${name.slice(0, 60)}" inserts itself or nests deeper than ${MAX_INSERT_DEPTH} levels; the inner copies were skipped.`);
+    return;
+  }
+  const pos = (e.position as Pt | undefined) ?? { x: 0, y: 0 };
+  const base = block.position ?? { x: 0, y: 0 };
+  const sx = Number(e.xScale ?? 1) || 1;
+  const sy = Number(e.yScale ?? 1) || 1;
+  const rot = (Number(e.rotation ?? 0) * Math.PI) / 180;
+  const cos = Math.cos(rot);
+  const sin = Math.sin(rot);
+  const cols = Math.max(1, Math.floor(Number(e.columnCount ?? 1)) || 1);
+  const rows = Math.max(1, Math.floor(Number(e.rowCount ?? 1)) || 1);
+  const cs = Number(e.columnSpacing ?? 0);
+  const rs = Number(e.rowSpacing ?? 0);
+  const ext = (e.extrusionDirection as (Pt & { z?: number }) | undefined)?.z ?? 1;
+  const local: Affine = [cos * sx, -sin * sy, sin * sx, cos * sy, 0, 0];
+  const toBase: Affine = [1, 0, 0, 1, -base.x, -base.y];
+  for (let r = 0; r < rows; r++) {
+    for (let c = 0; c < cols; c++) {
+      // Array offsets run along the insert's rotated axes (DXF INSERT groups 44/45).
+      const ox = pos.x + cos * c * cs - sin * r * rs;
+      const oy = pos.y + sin * c * cs + cos * r * rs;
+      let im: Affine = compose([1, 0, 0, 1, ox, oy], compose(local, toBase));
+      if (ext < 0) im = compose(MIRROR_X, im);
+      walk(ctx, block.entities ?? [], compose(m, im), layer, depth + 1, [...stack, name]);
+    }
+  }
+}
+
+function checkFinite(entities: DrawingEntity[]) {
+  const bad = (e: DrawingEntity) => {
+    if (e.kind === "circle") return ![e.cx, e.cy, e.r].every(Number.isFinite);
+    if (e.kind === "text") return ![e.x, e.y].every(Number.isFinite);
+    return e.pieces.some((p) =>
+      p.kind === "line" ? ![p.x0, p.y0, p.x1, p.y1].every(Number.isFinite) : ![p.cx, p.cy, p.r, p.a0, p.sweep].every(Number.isFinite),
+    );
+  };
+  const e = entities.find(bad);
+  if (e) {
+    throw new LayoutError(
+      "non_finite_coordinates",
+      `A ${e.type} on layer "${e.layer}"${e.handle ? ` (handle ${e.handle})` : ""} has coordinates that are not finite numbers. Fix or delete it in the CAD program and export again.`,
+    );
+  }
+}
+
+/**
+ * Read a DXF layout into typed model-space entities in drawing units.
+ * @param input DXF text or bytes (ASCII DXF, any version dxf-parser reads).
+ * @throws LayoutError empty_file, truncated_file, binary_dxf, dwg_file, not_dxf, too_large, unreadable_dxf, non_finite_coordinates, too_many_entities.
+ */
+export function readDxf(input: string | Uint8Array, options: ReadDxfOptions): DxfDrawing {
+  const text = decodeLayout(input, options.maxBytes);
+  const dxf = parseText(text);
+  const ctx: Ctx = { blocks: dxf.blocks ?? {}, tol: options.chordTolerance, out: [], counts: new Map(), notes: new Map(), expanded: 0 };
+  walk(ctx, dxf.entities ?? [], IDENTITY, null, 0, []);
+  checkFinite(ctx.out);
+  const ins = dxf.header?.["$INSUNITS"];
+  return {
+    insUnits: typeof ins === "number" && Number.isFinite(ins) ? ins : null,
+    entities: ctx.out,
+    layerCounts: ctx.counts,
+    notes: [...ctx.notes.values()].map((n) => ({ code: n.code, message: n.n > 1 ? `${n.message} (${n.n} times)` : n.message })),
+  };
+}
+
+export { arcEnd };
