@@ -13,10 +13,10 @@
  *   any state before cleared ──withdraw (uploader)──▶ withdrawn
  */
 import { ConflictError, DomainError, ForbiddenError } from "../errors";
+import { ROLES, type Role } from "../auth/roles";
 import { FourEyesError, SignatureError, StaleVersionError } from "./errors";
 
-export const ROLES = ["admin", "designer", "fluidics_reviewer", "fab_liaison", "lead"] as const;
-export type Role = (typeof ROLES)[number];
+export { ROLES, type Role };
 
 export const REVIEW_STATUSES = ["draft", "with_fluidics", "with_fab", "changes_requested", "cleared", "withdrawn"] as const;
 export type ReviewStatus = (typeof REVIEW_STATUSES)[number];

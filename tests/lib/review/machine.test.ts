@@ -180,6 +180,10 @@ describe("wrong role → 403", () => {
     const e = thrown(() => transition(s, eventOf("pass_fluidics", s.version), lead, ctx())) as DomainError;
     expect(e.status).toBe(403);
     expect(e.message).toMatch(/Leads can read/);
+    // An admin manages the team but holds no review role unless granted one.
+    const a = thrown(() => transition(s, eventOf("pass_fluidics", s.version), admin, ctx())) as DomainError;
+    expect(a.status).toBe(403);
+    expect(a.message).not.toMatch(/Leads/);
   });
 
   it("a fab liaison cannot request changes during the fluidics stage, nor a fluidics reviewer during the fab stage", () => {
