@@ -53,11 +53,17 @@ export const soluteSchema = z
   .object({ preset: z.string().min(1).max(64).optional(), diffusivity: quantitySchema.optional(), name: z.string().max(120).optional() })
   .strict();
 
+/** Which phase a port feeds on a two-phase chip: `fluid` is the continuous phase, `second_phase` the dispersed one. Optional; ports default to continuous. */
+export const portPhaseSchema = z.enum(["continuous", "dispersed"]);
+
 export const portDriveSchema = z.union([
-  z.object({ flow: quantitySchema }).strict(),
-  z.object({ pressure: quantitySchema }).strict(),
-  z.object({ head: quantitySchema }).strict(),
+  z.object({ flow: quantitySchema, phase: portPhaseSchema.optional() }).strict(),
+  z.object({ pressure: quantitySchema, phase: portPhaseSchema.optional() }).strict(),
+  z.object({ head: quantitySchema, phase: portPhaseSchema.optional() }).strict(),
 ]);
+
+/** Photomask (or tool) class for the process's minimum feature size; optional, each process has a default. */
+export const maskSchema = z.enum(["transparency", "film", "chrome"]);
 
 export const conditionsSchema = geometryConditionsSchema.extend({
   fluid: fluidSchema.optional(),
@@ -65,6 +71,7 @@ export const conditionsSchema = geometryConditionsSchema.extend({
   solute: soluteSchema.optional(),
   ports: z.record(z.string().min(1).max(64), portDriveSchema).optional(),
   process: z.string().min(1).max(64).optional(),
+  mask: maskSchema.optional(),
   pump: z.object({ max_pressure: quantitySchema.optional() }).strict().optional(),
   /** Living cells flow through the chip: enables the cell-safe wall-shear check. */
   cells: z.boolean().optional(),
