@@ -31,10 +31,10 @@ const envSchema = z.object({
   MAIL_FROM: optionalText.transform((v) => v ?? "Stokeline <no-reply@stokeline.local>"),
   STORAGE_DIR: optionalText.transform((v) => v ?? "data/files"),
   MAX_UPLOAD_BYTES: optionalText.pipe(
-    z.coerce
-      .number({ message: "must be a whole number of bytes" })
-      .int({ message: "must be a whole number of bytes" })
-      .positive({ message: "must be a positive number of bytes" })
+    z
+      .string()
+      .regex(/^[1-9][0-9]*$/, { message: "must be a positive whole number of bytes" })
+      .transform(Number)
       .optional(),
   ),
 });

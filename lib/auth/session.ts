@@ -1,0 +1,15 @@
+import "server-only";
+/**
+ * The one place that reads the next-auth session. Tests replace this module
+ * with vi.mock("@/lib/auth/session") to act as a given user without cookies.
+ */
+import { getServerSession } from "next-auth";
+import { getAuthOptions } from "./options";
+
+/** The signed-in user's id from the JWT session, or null when signed out. */
+export async function getSessionUserId(): Promise<number | null> {
+  const session = await getServerSession(getAuthOptions());
+  const raw = (session?.user as { id?: unknown } | undefined)?.id;
+  const id = typeof raw === "string" ? Number(raw) : NaN;
+  return Number.isInteger(id) && id > 0 ? id : null;
+}
