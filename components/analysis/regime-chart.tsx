@@ -1,0 +1,259 @@
+"use client";
+/**
+ * The regime map: every segment placed on log–log axes of two dimensionless
+ * groups, with the published thresholds drawn as lines and the regions between
+ * them named. Clicking a point selects its segment (nearest point found with a
+ * d3-quadtree, so ten thousand points stay responsive).
+ */
+import { useId, useMemo, useState } from "react";
+import { scaleLog } from "d3-scale";
+import { quadtree } from "d3-quadtree";
+import type { AnalyzeJson, AnalyzeSegmentJson } from "@/lib/analysis/serialize";
+import { FlagShape } from "./flag-marker";
+import { formatNumber } from "./fields";
+import type { Severity } from "./types";
+
+export type GroupKey = "reynolds" | "capillary" | "peclet" | "dean" | "weber";
+
+interface Threshold {
+  value: number;
+  label: string;
+  source: string;
+}
+
+interface GroupDef {
+  key: GroupKey;
+  name: string;
+  symbol: string;
+  /** Published thresholds on this axis, ascending. */
+  thresholds: Threshold[];
+  /** Names of the regions between thresholds: one more than thresholds. */
+  regions: string[];
+  /** Flag-code prefixes whose threshold belongs on this axis. */
+  codePrefixes: string[];
+}
+
+// Thresholds and their sources: /work/shared/REFERENCES.md §5.
+export const GROUPS: GroupDef[] = [
+  {
+    key: "reynolds",
+    name: "Reynolds number",
+    symbol: "Re",
+    thresholds: [
+      { value: 1, label: "Re = 1", source: "viscous ≫ inertial below (common practice)" },
+      { value: 100, label: "Re = 100", source: "inertial microfluidics ~1–100 (Di Carlo, Lab Chip 9, 3038, 2009)" },
+      { value: 2300, label: "Re = 2300", source: "engineering laminar limit (White, Fluid Mechanics)" },
+    ],
+    regions: ["creeping", "inertial focusing", "strong inertia", "transition"],
+    codePrefixes: ["re_", "reynolds"],
+  },
+  {
+    key: "capillary",
+    name: "Capillary number",
+    symbol: "Ca",
+    thresholds: [
+      { value: 0.01, label: "Ca = 0.01", source: "squeezing below (Garstecki et al., Lab Chip 6, 437, 2006)" },
+      { value: 0.015, label: "Ca* ≈ 0.015", source: "squeezing→dripping (De Menech et al., J. Fluid Mech. 595, 141, 2008)" },
+    ],
+    regions: ["squeezing", "", "dripping / jetting"],
+    codePrefixes: ["ca_", "capillary"],
+  },
+  {
+    key: "peclet",
+    name: "Péclet number",
+    symbol: "Pe",
+    thresholds: [{ value: 1, label: "Pe = 1", source: "diffusion vs. advection across the width (Squires & Quake, Rev. Mod. Phys. 77, 977, 2005)" }],
+    regions: ["diffusion-led", "advection-led"],
+    codePrefixes: ["pe_", "peclet", "mix"],
+  },
+  {
+    key: "dean",
+    name: "Dean number",
+    symbol: "De",
+    thresholds: [{ value: 1, label: "De = 1", source: "secondary Dean flow becomes noticeable (common practice)" }],
+    regions: ["weak secondary flow", "Dean vortices"],
+    codePrefixes: ["de_", "dean"],
+  },
+  {
+    key: "weber",
+    name: "Weber number",
+    symbol: "We",
+    thresholds: [{ value: 1, label: "We = 1", source: "inertia vs. interfacial tension (definition)" }],
+    regions: ["tension-held", "inertia breaks interfaces"],
+    codePrefixes: ["we_", "weber"],
+  },
+];
+
+const W = 620;
+const H = 400;
+const M = { top: 30, right: 120, bottom: 44, left: 60 };
+
+export interface RegimeChartProps {
+  analysis: AnalyzeJson;
+  flagsBySegment: Map<string, Severity[]>;
+  selectedId: string | null;
+  onSelect: (segmentId: string | null) => void;
+}
+
+function groupValue(s: AnalyzeSegmentJson, key: GroupKey): number | null {
+  const v = s[key];
+  return typeof v === "number" && Number.isFinite(v) && v > 0 ? v : null;
+}
+
+function decadeDomain(values: number[], thresholds: Threshold[]): [number, number] {
+  let lo = Math.min(...values, ...thresholds.map((t) => t.value));
+  let hi = Math.max(...values, ...thresholds.map((t) => t.value));
+  if (!Number.isFinite(lo)) return [1e-3, 1e3];
+  lo = 10 ** Math.floor(Math.log10(lo));
+  hi = 10 ** Math.ceil(Math.log10(hi));
+  if (hi <= lo) hi = lo * 10;
+  return [lo, hi];
+}
+
+function worst(sev?: Severity[]): Severity | null {
+  if (!sev || sev.length === 0) return null;
+  return sev.includes("block") ? "block" : sev.includes("warn") ? "warn" : "info";
+}
+
+export function RegimeChart({ analysis, flagsBySegment, selectedId, onSelect }: RegimeChartProps) {
+  const [xKey, setXKey] = useState<GroupKey>("reynolds");
+  const [yKey, setYKey] = useState<GroupKey>("peclet");
+  const titleId = useId();
+  const gx = GROUPS.find((g) => g.key === xKey)!;
+  const gy = GROUPS.find((g) => g.key === yKey)!;
+
+  // Flag thresholds carried by this analysis's regime flags, placed on the axis their code names.
+  const flagLines = useMemo(() => {
+    const lines = new Map<GroupKey, Threshold[]>();
+    for (const f of analysis.flags) {
+      if (f.family !== "regime" || typeof f.threshold !== "number" || !(f.threshold > 0)) continue;
+      const g = GROUPS.find((x) => x.codePrefixes.some((p) => f.code.toLowerCase().startsWith(p)));
+      if (!g) continue;
+      const list = lines.get(g.key) ?? [];
+      if (!list.some((t) => t.value === f.threshold) && !g.thresholds.some((t) => t.value === f.threshold)) {
+        list.push({ value: f.threshold, label: `${g.symbol} = ${formatNumber(f.threshold)} (${f.code})`, source: f.source });
+      }
+      lines.set(g.key, list);
+    }
+    return lines;
+  }, [analysis.flags]);
+
+  const points = useMemo(() => {
+    const out: { id: string; x: number; y: number; sev: Severity | null }[] = [];
+    for (const s of analysis.segments) {
+      const x = groupValue(s, xKey);
+      const y = groupValue(s, yKey);
+      if (x !== null && y !== null) out.push({ id: s.id, x, y, sev: worst(flagsBySegment.get(s.id)) });
+    }
+    return out;
+  }, [analysis.segments, xKey, yKey, flagsBySegment]);
+  const omitted = analysis.segments.length - points.length;
+
+  const xT = [...gx.thresholds, ...(flagLines.get(xKey) ?? [])];
+  const yT = [...gy.thresholds, ...(flagLines.get(yKey) ?? [])];
+  const xs = scaleLog().domain(decadeDomain(points.map((p) => p.x), xT)).range([M.left, W - M.right]);
+  const ys = scaleLog().domain(decadeDomain(points.map((p) => p.y), yT)).range([H - M.bottom, M.top]);
+  const tree = useMemo(() => quadtree(points, (p) => xs(p.x), (p) => ys(p.y)), [points, xs, ys]);
+
+  const onClick = (e: React.MouseEvent<SVGSVGElement>) => {
+    const svg = e.currentTarget;
+    const r = svg.getBoundingClientRect();
+    const px = ((e.clientX - r.left) / r.width) * W;
+    const py = ((e.clientY - r.top) / r.height) * H;
+    const hit = tree.find(px, py, 10);
+    onSelect(hit ? hit.id : null);
+  };
+
+  const selected = points.find((p) => p.id === selectedId);
+  const decades = (s: typeof xs) => s.ticks().filter((t) => Math.abs(Math.log10(t) - Math.round(Math.log10(t))) < 1e-9);
+  const regionsX = bands(gx, xs.domain() as [number, number]);
+  const regionsY = bands(gy, ys.domain() as [number, number]);
+
+  return (
+    <section aria-labelledby={titleId} className="rounded-md border border-ink-200 bg-white p-3">
+      <div className="mb-2 flex flex-wrap items-center gap-3">
+        <h2 id={titleId} className="mr-auto text-sm font-semibold text-ink-900">Regime map</h2>
+        <AxisPicker label="Horizontal axis" value={xKey} onChange={setXKey} />
+        <AxisPicker label="Vertical axis" value={yKey} onChange={setYKey} />
+      </div>
+      <svg viewBox={`0 0 ${W} ${H}`} className="h-auto w-full cursor-pointer select-none" role="img" aria-label={`${gy.name} against ${gx.name} for ${points.length} segments, log–log; thresholds ${[...xT, ...yT].map((t) => t.label).join(", ")}`} onClick={onClick} data-testid="regime-chart">
+        {regionsX.map((b, i) => (
+          <g key={`rx${i}`}>
+            <rect x={xs(b.lo)} y={M.top} width={xs(b.hi) - xs(b.lo)} height={H - M.top - M.bottom} fill={i % 2 ? "#f3f6f9" : "#ffffff"} />
+            {b.name && <text x={(xs(b.lo) + xs(b.hi)) / 2} y={M.top - 8} textAnchor="middle" className="fill-ink-600 text-[10px] italic">{b.name}</text>}
+          </g>
+        ))}
+        {regionsY.map((b, i) =>
+          b.name ? <text key={`ry${i}`} x={W - M.right + 6} y={(ys(b.lo) + ys(b.hi)) / 2} dominantBaseline="middle" className="fill-ink-600 text-[10px] italic">{b.name}</text> : null,
+        )}
+        {decades(xs).map((t) => (
+          <g key={`x${t}`} transform={`translate(${xs(t)},0)`}>
+            <line y1={M.top} y2={H - M.bottom} stroke="#e3e9f0" />
+            <text y={H - M.bottom + 14} textAnchor="middle" className="fill-ink-700 font-mono text-[10px]">{formatNumber(t)}</text>
+          </g>
+        ))}
+        {decades(ys).map((t) => (
+          <g key={`y${t}`} transform={`translate(0,${ys(t)})`}>
+            <line x1={M.left} x2={W - M.right} stroke="#e3e9f0" />
+            <text x={M.left - 6} dominantBaseline="middle" textAnchor="end" className="fill-ink-700 font-mono text-[10px]">{formatNumber(t)}</text>
+          </g>
+        ))}
+        {xT.map((t) => (
+          <g key={`tx${t.label}`}>
+            <line x1={xs(t.value)} x2={xs(t.value)} y1={M.top} y2={H - M.bottom} stroke="#37506c" strokeDasharray="5 3" />
+            <title>{`${t.label}: ${t.source}`}</title>
+            <text x={xs(t.value) + 3} y={H - M.bottom - 4} className="fill-ink-700 text-[9px]" transform={`rotate(-90 ${xs(t.value) + 3} ${H - M.bottom - 4})`}>{t.label}</text>
+          </g>
+        ))}
+        {yT.map((t) => (
+          <g key={`ty${t.label}`}>
+            <line x1={M.left} x2={W - M.right} y1={ys(t.value)} y2={ys(t.value)} stroke="#37506c" strokeDasharray="2 3" />
+            <title>{`${t.label}: ${t.source}`}</title>
+            <text x={M.left + 4} y={ys(t.value) - 3} className="fill-ink-700 text-[9px]">{t.label}</text>
+          </g>
+        ))}
+        <rect x={M.left} y={M.top} width={W - M.left - M.right} height={H - M.top - M.bottom} fill="none" stroke="#9aaec4" />
+        <g>
+          {points.map((p) =>
+            p.sev ? (
+              <g key={p.id} transform={`translate(${xs(p.x)},${ys(p.y)})`}><FlagShape severity={p.sev} size={7} /></g>
+            ) : (
+              <circle key={p.id} cx={xs(p.x)} cy={ys(p.y)} r={2.6} fill="#0e8572" fillOpacity={0.55} stroke="#0b5249" strokeWidth={0.5} />
+            ),
+          )}
+        </g>
+        {selected && <circle cx={xs(selected.x)} cy={ys(selected.y)} r={8} fill="none" stroke="#111c29" strokeWidth={2} data-testid="regime-selected" />}
+        <text x={(M.left + W - M.right) / 2} y={H - 8} textAnchor="middle" className="fill-ink-900 text-[11px] font-medium">{gx.name}, {gx.symbol}</text>
+        <text transform={`translate(14,${(M.top + H - M.bottom) / 2}) rotate(-90)`} textAnchor="middle" className="fill-ink-900 text-[11px] font-medium">{gy.name}, {gy.symbol}</text>
+      </svg>
+      <p className="mt-1 text-xs text-ink-600">
+        Dashed lines: published thresholds (hover a line for its source){flagLines.size > 0 ? " and this analysis's flag thresholds" : ""}. Points with a shape carry flags. Click a point to select its segment.
+        {omitted > 0 && ` ${omitted} segment${omitted === 1 ? " has" : "s have"} no positive value on one of these axes and ${omitted === 1 ? "is" : "are"} not plotted.`}
+      </p>
+    </section>
+  );
+}
+
+function bands(g: GroupDef, domain: [number, number]): { lo: number; hi: number; name: string }[] {
+  const edges = [domain[0], ...g.thresholds.map((t) => t.value), domain[1]];
+  const out: { lo: number; hi: number; name: string }[] = [];
+  for (let i = 0; i < edges.length - 1; i++) {
+    const lo = Math.max(edges[i], domain[0]);
+    const hi = Math.min(edges[i + 1], domain[1]);
+    if (hi > lo) out.push({ lo, hi, name: g.regions[i] ?? "" });
+  }
+  return out;
+}
+
+function AxisPicker({ label, value, onChange }: { label: string; value: GroupKey; onChange: (k: GroupKey) => void }) {
+  return (
+    <label className="flex items-center gap-1.5 text-xs text-ink-800">
+      {label}
+      <select value={value} onChange={(e) => onChange(e.target.value as GroupKey)} className="rounded border border-ink-300 bg-white px-1.5 py-1 text-xs">
+        {GROUPS.map((g) => (
+          <option key={g.key} value={g.key}>{g.symbol} — {g.name}</option>
+        ))}
+      </select>
+    </label>
+  );
+}
