@@ -1,0 +1,705 @@
+/**
+ * The layout reader's second half: typed drawing entities + layer plan →
+ * channel network (nodes, segments, ports) in SI. Topology rules (issue 3):
+ * endpoints within the snap tolerance merge; an endpoint on another channel's
+ * interior splits it (T-junction); crossings on channel layers are junctions;
+ * duplicated pieces are merged once with a warning; port circles trim the
+ * channels that end inside them; segments run between ports, junctions, dead
+ * ends and changes of width, depth or cross-section.
+ */
+import type { GeometryConditions } from "../analysis/conditions";
+import { LayoutError } from "../errors";
+import { readDxf, MAX_LAYOUT_BYTES } from "../dxf/read";
+import type { CircleEntity, DxfDrawing, PathEntity, Piece, TextEntity } from "../dxf/types";
+import { parseQuantity } from "../units/quantity";
+import { bboxOf, circleCrossings, endOf, intersect, pieceLength, pointAt, project, reversed, samplePoints, startOf, subPiece } from "./geometry";
+import { SpatialGrid } from "./grid";
+import { describeLayers, planLayers, type LayerPlan, type ResolvedLayer } from "./layers";
+import type { ChannelNetwork, LayoutWarning, NetworkNode, NetworkPort, NetworkSegment, NodeKind, WidthSample } from "./types";
+
+/** Endpoint-merging tolerance when the conditions give none, metres (common practice: below a 1 µm mask grid). */
+export const DEFAULT_SNAP_M = 0.5e-6;
+/** Chord tolerance for splines and ellipses when the conditions give none, metres (common practice). */
+export const DEFAULT_CHORD_TOLERANCE_M = 0.1e-6;
+const MAX_LISTED_WARNINGS = 25;
+
+export interface ExtractOptions {
+  maxBytes?: number;
+}
+
+interface Work {
+  p: Piece;
+  len: number;
+  layer: ResolvedLayer;
+  src: number;
+  curveR: number | null;
+}
+
+interface PortCircle {
+  cx: number;
+  cy: number;
+  r: number;
+  name: string;
+}
+
+class UnionFind {
+  readonly parent: Int32Array;
+  constructor(n: number) {
+    this.parent = new Int32Array(n);
+    for (let i = 0; i < n; i++) this.parent[i] = i;
+  }
+  find(i: number): number {
+    let r = i;
+    while (this.parent[r] !== r) r = this.parent[r];
+    while (this.parent[i] !== r) {
+      const next = this.parent[i];
+      this.parent[i] = r;
+      i = next;
+    }
+    return r;
+  }
+  /** Join the sets of a and b (the smaller index becomes the root). */
+  union(a: number, b: number): void {
+    const ra = this.find(a);
+    const rb = this.find(b);
+    if (ra !== rb) this.parent[Math.max(ra, rb)] = Math.min(ra, rb);
+  }
+}
+
+const fmt = (v: number) => Number(v.toPrecision(6)).toString();
+
+function layoutError(code: string, message: string, plan?: LayerPlan): LayoutError {
+  return new LayoutError(code, message, plan ? { layers: plan.summaries } : undefined);
+}
+
+/** Widths of a piece in drawing units: its own drawn width, else the layer's. */
+function widthsOf(w: Work, mpu: number): [number, number] {
+  const lw = w.layer.widthM === null ? null : w.layer.widthM / mpu;
+  const w0 = w.p.w0 ?? lw;
+  const w1 = w.p.w1 ?? lw;
+  if (w0 === null || w1 === null) {
+    throw new LayoutError(
+      "width_missing",
+      `Channels on layer "${w.layer.name}" have no drawn width and the layer has none: add "width" (e.g. "100 um") to conditions.layers.${w.layer.name}, or draw the centrelines as polylines with a width.`,
+    );
+  }
+  return [w0, w1];
+}
+
+function nameports(circles: CircleEntity[], texts: TextEntity[], warnings: LayoutWarning[], mpu: number): PortCircle[] {
+  // Inside the circle beats nearby; each text names one port; unnamed ports are P1, P2 … by x then y.
+  const cands: { pi: number; ti: number; d: number; inside: boolean }[] = [];
+  circles.forEach((c, pi) => {
+    texts.forEach((t, ti) => {
+      if (t.text === "") return;
+      const d = Math.hypot(t.x - c.cx, t.y - c.cy);
+      if (d <= 2 * c.r) cands.push({ pi, ti, d, inside: d <= c.r });
+    });
+  });
+  cands.sort((a, b) => Number(b.inside) - Number(a.inside) || a.d - b.d);
+  const names = new Array<string | null>(circles.length).fill(null);
+  const usedText = new Set<number>();
+  for (const c of cands) {
+    if (names[c.pi] !== null || usedText.has(c.ti)) continue;
+    names[c.pi] = texts[c.ti].text.slice(0, 64);
+    usedText.add(c.ti);
+  }
+  const taken = new Set<string>();
+  circles.forEach((c, i) => {
+    const n = names[i];
+    if (n === null) return;
+    if (taken.has(n)) {
+      let k = 2;
+      while (taken.has(`${n}_${k}`)) k++;
+      warnings.push({ code: "port_name_repeated", message: `Two ports are labelled "${n}"; the second is called "${n}_${k}". Give each port its own label.`, at: { xM: c.cx * mpu, yM: c.cy * mpu } });
+      names[i] = `${n}_${k}`;
+    }
+    taken.add(names[i] as string);
+  });
+  const unnamed = circles.map((c, i) => ({ c, i })).filter((o) => names[o.i] === null).sort((a, b) => a.c.cx - b.c.cx || a.c.cy - b.c.cy);
+  let k = 1;
+  for (const { i } of unnamed) {
+    while (taken.has(`P${k}`)) k++;
+    names[i] = `P${k}`;
+    taken.add(`P${k}`);
+  }
+  return circles.map((c, i) => ({ cx: c.cx, cy: c.cy, r: c.r, name: names[i] as string }));
+}
+
+/** Cut away the parts of a piece inside any port circle. */
+function trimByPorts(w: Work, ports: PortCircle[], grid: SpatialGrid | null): Work[] {
+  if (!grid) return [w];
+  const [minX, minY, maxX, maxY] = bboxOf(w.p);
+  const hit = new Set<number>();
+  grid.query(minX, minY, maxX, maxY, (id) => hit.add(id));
+  if (hit.size === 0) return [w];
+  let parts: Work[] = [w];
+  for (const pi of hit) {
+    const c = ports[pi];
+    const next: Work[] = [];
+    for (const part of parts) {
+      const cuts = circleCrossings(part.p, c.cx, c.cy, c.r);
+      const ts = [0, ...cuts, 1];
+      let changed = false;
+      const kept: Work[] = [];
+      for (let k = 0; k + 1 < ts.length; k++) {
+        const ta = ts[k];
+        const tb = ts[k + 1];
+        if (tb - ta <= 1e-12) continue;
+        const m = pointAt(part.p, (ta + tb) / 2);
+        if (Math.hypot(m.x - c.cx, m.y - c.cy) < c.r) {
+          changed = true;
+          continue;
+        }
+        kept.push(ta === 0 && tb === 1 ? part : { ...part, p: subPiece(part.p, ta, tb), len: part.len * (tb - ta) });
+      }
+      next.push(...(changed || kept.length !== 1 ? kept : [part]));
+    }
+    parts = next;
+  }
+  return parts;
+}
+
+function chooseCellSize(works: Work[], snap: number): number {
+  if (works.length === 0) return 1;
+  let sum = 0;
+  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  for (const w of works) {
+    const b = bboxOf(w.p);
+    sum += Math.max(b[2] - b[0], b[3] - b[1]);
+    minX = Math.min(minX, b[0]); minY = Math.min(minY, b[1]); maxX = Math.max(maxX, b[2]); maxY = Math.max(maxY, b[3]);
+  }
+  const extent = Math.max(maxX - minX, maxY - minY, snap * 4, 1e-300);
+  return Math.max(sum / works.length, extent / 2048, snap * 4, extent * 1e-9);
+}
+
+/** Split parameters for every piece: T-junctions and crossings. */
+function findSplits(works: Work[], grid: SpatialGrid, snap: number): number[][] {
+  const splits: number[][] = works.map(() => []);
+  const stamp = new Int32Array(works.length).fill(-1);
+  const interior = (i: number, t: number) => t * works[i].len > snap && (1 - t) * works[i].len > snap;
+  const boxes = works.map((w) => bboxOf(w.p));
+  for (let i = 0; i < works.length; i++) {
+    const bi = boxes[i];
+    const pi = works[i].p;
+    grid.query(bi[0] - snap, bi[1] - snap, bi[2] + snap, bi[3] + snap, (j) => {
+      if (j <= i || stamp[j] === i) return;
+      stamp[j] = i;
+      const bj = boxes[j];
+      if (bj[0] > bi[2] + snap || bj[2] < bi[0] - snap || bj[1] > bi[3] + snap || bj[3] < bi[1] - snap) return;
+      const pj = works[j].p;
+      for (const h of intersect(pi, pj)) {
+        if (interior(i, h.t)) splits[i].push(h.t);
+        if (interior(j, h.u)) splits[j].push(h.u);
+      }
+      for (const [a, b, ia] of [[pi, pj, j], [pj, pi, i]] as const) {
+        for (const e of [startOf(a), endOf(a)]) {
+          const pr = project(b, e.x, e.y);
+          if (pr.dist <= snap && interior(ia, pr.t)) splits[ia].push(pr.t);
+        }
+      }
+    });
+  }
+  return splits;
+}
+
+function sameGeometry(a: Piece, b: Piece, snap: number): boolean {
+  if (a.kind !== b.kind) return false;
+  const ma = pointAt(a, 0.5);
+  const mb = pointAt(b, 0.5);
+  if (Math.hypot(ma.x - mb.x, ma.y - mb.y) > snap) return false;
+  return Math.abs(pieceLength(a) - pieceLength(b)) <= 2 * snap;
+}
+
+function chainOutline(paths: PathEntity[], circles: CircleEntity[], tol: number, mpu: number): [number, number][][] {
+  const polys: [number, number][][] = [];
+  const toM = (x: number, y: number): [number, number] => [x * mpu, y * mpu];
+  for (const c of circles) {
+    const ring: [number, number][] = [];
+    for (let k = 0; k <= 72; k++) ring.push(toM(c.cx + c.r * Math.cos((k * Math.PI) / 36), c.cy + c.r * Math.sin((k * Math.PI) / 36)));
+    polys.push(ring);
+  }
+  const open: Piece[] = [];
+  for (const p of paths) {
+    if (p.closed) {
+      const s = startOf(p.pieces[0]);
+      const ring: [number, number][] = [toM(s.x, s.y)];
+      for (const q of p.pieces) for (const pt of samplePoints(q)) ring.push(toM(pt.x, pt.y));
+      polys.push(ring);
+    } else open.push(...p.pieces);
+  }
+  // Loose lines and arcs (a die drawn as four LINEs): chain end to start into closed rings.
+  const used = new Array<boolean>(open.length).fill(false);
+  if (open.length > 5000) return polys;
+  for (let i = 0; i < open.length; i++) {
+    if (used[i]) continue;
+    used[i] = true;
+    const chain: Piece[] = [open[i]];
+    const first = startOf(open[i]);
+    let end = endOf(open[i]);
+    let grown = true;
+    while (grown && Math.hypot(end.x - first.x, end.y - first.y) > tol) {
+      grown = false;
+      for (let j = 0; j < open.length; j++) {
+        if (used[j]) continue;
+        const s = startOf(open[j]);
+        const e = endOf(open[j]);
+        const piece = Math.hypot(s.x - end.x, s.y - end.y) <= tol ? open[j] : Math.hypot(e.x - end.x, e.y - end.y) <= tol ? reversed(open[j]) : null;
+        if (!piece) continue;
+        used[j] = true;
+        chain.push(piece);
+        end = endOf(piece);
+        grown = true;
+        break;
+      }
+    }
+    if (chain.length > 1 && Math.hypot(end.x - first.x, end.y - first.y) <= tol) {
+      const ring: [number, number][] = [toM(first.x, first.y)];
+      for (const q of chain) for (const pt of samplePoints(q)) ring.push(toM(pt.x, pt.y));
+      polys.push(ring);
+    }
+  }
+  return polys;
+}
+
+/**
+ * Build the channel network from a DXF layout and the geometry conditions.
+ * @param input DXF text or bytes.
+ * @param conditions units, snap, chord_tolerance and layer mapping (zod-validated).
+ * @returns the network in SI units with warnings and the layer listing.
+ * @throws LayoutError (bad file, units unknown, no channel layer, width/depth missing, nothing connected) or ConditionsError (bad quantity).
+ */
+export function extractNetwork(input: string | Uint8Array, conditions: GeometryConditions, options: ExtractOptions = {}): ChannelNetwork {
+  const snapM = conditions.snap === undefined ? DEFAULT_SNAP_M : parseQuantity(conditions.snap, "length", "snap");
+  const chordM = conditions.chord_tolerance === undefined ? DEFAULT_CHORD_TOLERANCE_M : parseQuantity(conditions.chord_tolerance, "length", "chord_tolerance");
+  if (snapM < 0) throw layoutError("invalid_snap", "snap must not be negative.");
+  if (!(chordM > 0)) throw layoutError("invalid_chord_tolerance", "chord_tolerance must be greater than zero.");
+  const drawing = readDxf(input, { maxBytes: options.maxBytes ?? MAX_LAYOUT_BYTES, chordToleranceM: chordM, units: conditions.units });
+  const plan = planLayers(drawing, conditions);
+  if (!drawing.units) throw layoutError("units_unknown", drawing.unitsProblem ?? "The drawing's units are not known.", plan);
+  return buildNetwork(drawing, plan, snapM, drawing.units.metresPerUnit);
+}
+
+function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: number): ChannelNetwork {
+  const units = drawing.units!;
+  const snap = snapM / mpu;
+  const warnings: LayoutWarning[] = drawing.notes.map((n) => ({ code: n.code, message: n.message }));
+  const at = (x: number, y: number) => ({ xM: x * mpu, yM: y * mpu });
+  if (plan.missing.length > 0) warnings.push({ code: "layer_missing", message: `The conditions name layers the drawing does not have: ${plan.missing.join(", ")}.` });
+  if (plan.unmapped.length > 0) warnings.push({ code: "layers_unmapped", message: `Layers not named in the conditions were not read: ${plan.unmapped.join(", ")}. Map them in conditions.layers if they matter.` });
+  if (plan.mappingProposed) warnings.push({ code: "mapping_proposed", message: "The conditions name no layers, so Stokeline proposed a mapping from the layers' contents (circles → ports, paths → channels). Check it and save your own." });
+
+  const roleOf = (layer: string) => plan.byName.get(layer)?.role ?? "ignore";
+  const channelLayers = plan.summaries.filter((l) => l.role === "channel");
+  if (channelLayers.length === 0) {
+    throw layoutError("no_channel_layer", `No layer is mapped to the role "channel", so there is no channel network to read. Layers in this drawing: ${describeLayers(plan.summaries)}. Name the channel layer in conditions.layers.`, plan);
+  }
+
+  // Sort entities by role.
+  const works: Work[] = [];
+  const portCircles: CircleEntity[] = [];
+  const texts: TextEntity[] = [];
+  const outlinePaths: PathEntity[] = [];
+  const outlineCircles: CircleEntity[] = [];
+  const shapesByLayer = new Map<string, number>();
+  const linesByLayer = new Map<string, number>();
+  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  const grow = (b: [number, number, number, number]) => {
+    minX = Math.min(minX, b[0]); minY = Math.min(minY, b[1]); maxX = Math.max(maxX, b[2]); maxY = Math.max(maxY, b[3]);
+  };
+  drawing.entities.forEach((e, src) => {
+    if (e.kind === "text") {
+      texts.push(e);
+      return;
+    }
+    const role = roleOf(e.layer);
+    if (role === "channel" || role === "port" || role === "outline") {
+      if (e.kind === "circle") grow([e.cx - e.r, e.cy - e.r, e.cx + e.r, e.cy + e.r]);
+      else for (const p of e.pieces) grow(bboxOf(p));
+    }
+    if (role === "port" && e.kind === "circle") portCircles.push(e);
+    else if (role === "outline") {
+      if (e.kind === "circle") outlineCircles.push(e);
+      else outlinePaths.push(e);
+    } else if (role === "channel") {
+      const layer = plan.byName.get(e.layer)!;
+      const drawnWidth = e.kind === "path" && e.pieces.some((p) => p.w0 !== null);
+      if (e.kind === "circle" || (e.closed && !drawnWidth)) {
+        // Closed shapes on a channel layer are mask outlines (chambers, filled channels), kept for an outline reader.
+        shapesByLayer.set(e.layer, (shapesByLayer.get(e.layer) ?? 0) + 1);
+        return;
+      }
+      linesByLayer.set(e.layer, (linesByLayer.get(e.layer) ?? 0) + 1);
+      for (const p of e.pieces) {
+        const len = pieceLength(p);
+        if (len > 0) works.push({ p, len, layer, src, curveR: e.minCurveRadius });
+      }
+    }
+  });
+  for (const l of plan.summaries) {
+    if (l.role !== "channel") continue;
+    const shapes = shapesByLayer.get(l.name) ?? 0;
+    const lines = linesByLayer.get(l.name) ?? 0;
+    l.style = shapes > 0 && lines > 0 ? "mixed" : shapes > 0 ? "outline" : "centreline";
+    if (shapes > 0) {
+      warnings.push({ code: "outline_shapes_not_read", message: `Layer "${l.name}" has ${shapes} closed shape(s) (mask outlines or chambers). Stokeline reads channel layers as centrelines; the closed shapes were not read as channels.` });
+    }
+    const other = Object.entries(l.byType).filter(([t]) => !["LINE", "ARC", "LWPOLYLINE", "POLYLINE", "SPLINE", "ELLIPSE", "CIRCLE", "TEXT", "MTEXT"].includes(t));
+    if (other.length > 0) {
+      warnings.push({ code: "entities_not_read", message: `Layer "${l.name}" has entities Stokeline does not read as channels: ${other.map(([t, n]) => `${t} ${n}`).join(", ")}.` });
+    }
+    const rl = plan.byName.get(l.name)!;
+    if (rl.depthM === null && lines > 0) {
+      throw layoutError("depth_missing", `Layer "${l.name}" is a channel layer but has no depth: add "depth" (e.g. "50 um") to conditions.layers.${l.name}.`, plan);
+    }
+  }
+  for (const w of works) widthsOf(w, mpu);
+
+  // Ports and trimming.
+  const ports = nameports(portCircles, texts, warnings, mpu);
+  let portGrid: SpatialGrid | null = null;
+  if (ports.length > 0) {
+    const maxR = Math.max(...ports.map((p) => p.r));
+    portGrid = new SpatialGrid(Math.max(maxR * 4, snap * 4, 1e-300));
+    ports.forEach((p, i) => portGrid!.insert(i, p.cx - p.r - snap, p.cy - p.r - snap, p.cx + p.r + snap, p.cy + p.r + snap));
+  }
+  const trimmed: Work[] = [];
+  for (const w of works) for (const t of trimByPorts(w, ports, portGrid)) trimmed.push(t);
+
+  // T-junctions and crossings.
+  const grid = new SpatialGrid(chooseCellSize(trimmed, snap));
+  trimmed.forEach((w, i) => {
+    const b = bboxOf(w.p);
+    grid.insert(i, b[0], b[1], b[2], b[3]);
+  });
+  const splits = findSplits(trimmed, grid, snap);
+  const pieces: Work[] = [];
+  trimmed.forEach((w, i) => {
+    const ts = splits[i];
+    if (ts.length === 0) {
+      pieces.push(w);
+      return;
+    }
+    ts.sort((a, b) => a - b);
+    let prev = 0;
+    for (const t of [...ts, 1]) {
+      if ((t - prev) * w.len <= snap && t !== 1) continue;
+      if (t - prev <= 0) continue;
+      pieces.push({ ...w, p: subPiece(w.p, prev, t), len: w.len * (t - prev) });
+      prev = t;
+    }
+  });
+
+  // Endpoints → nodes (snap merge; ends near a port circle join the port).
+  const nEnds = pieces.length * 2;
+  const uf = new UnionFind(nEnds + ports.length);
+  const endX = new Float64Array(nEnds);
+  const endY = new Float64Array(nEnds);
+  pieces.forEach((w, i) => {
+    const s = startOf(w.p);
+    const e = endOf(w.p);
+    endX[2 * i] = s.x; endY[2 * i] = s.y;
+    endX[2 * i + 1] = e.x; endY[2 * i + 1] = e.y;
+  });
+  const cell = Math.max(snap, 1e-300);
+  const buckets = new Map<string, number[]>();
+  for (let k = 0; k < nEnds; k++) {
+    const ix = Math.floor(endX[k] / cell);
+    const iy = Math.floor(endY[k] / cell);
+    for (let dx = -1; dx <= 1; dx++) {
+      for (let dy = -1; dy <= 1; dy++) {
+        const list = buckets.get(`${ix + dx},${iy + dy}`);
+        if (!list) continue;
+        for (const o of list) if (Math.hypot(endX[o] - endX[k], endY[o] - endY[k]) <= snap) uf.union(o, k);
+      }
+    }
+    const key = `${ix},${iy}`;
+    const list = buckets.get(key);
+    if (list) list.push(k);
+    else buckets.set(key, [k]);
+  }
+  if (portGrid) {
+    for (let k = 0; k < nEnds; k++) {
+      portGrid.query(endX[k], endY[k], endX[k], endY[k], (pi) => {
+        const p = ports[pi];
+        if (Math.hypot(endX[k] - p.cx, endY[k] - p.cy) <= p.r + snap) uf.union(k, nEnds + pi);
+      });
+    }
+  }
+  const portOfRoot = new Map<number, number>();
+  ports.forEach((_, pi) => {
+    const root = uf.find(nEnds + pi);
+    const prior = portOfRoot.get(root);
+    if (prior !== undefined) {
+      warnings.push({ code: "ports_joined", message: `Ports ${ports[prior].name} and ${ports[pi].name} are joined by channel ends closer than the snap tolerance; they were treated as one port, ${ports[prior].name}.`, at: at(ports[pi].cx, ports[pi].cy) });
+    } else portOfRoot.set(root, pi);
+  });
+
+  // Duplicates and zero-length pieces.
+  const keep: boolean[] = new Array(pieces.length).fill(true);
+  const byPair = new Map<string, number[]>();
+  const dupPairs = new Map<string, { x: number; y: number; count: number; types: string }>();
+  pieces.forEach((w, i) => {
+    const a = uf.find(2 * i);
+    const b = uf.find(2 * i + 1);
+    if (a === b && w.len <= 2 * snap) {
+      keep[i] = false;
+      return;
+    }
+    const key = a < b ? `${a}:${b}` : `${b}:${a}`;
+    const list = byPair.get(key);
+    if (!list) {
+      byPair.set(key, [i]);
+      return;
+    }
+    const dup = list.find((j) => sameGeometry(pieces[j].p, w.p, snap) || sameGeometry(pieces[j].p, reversed(w.p), snap));
+    if (dup === undefined) {
+      list.push(i);
+      return;
+    }
+    keep[i] = false;
+    const srcKey = `${Math.min(pieces[dup].src, w.src)}:${Math.max(pieces[dup].src, w.src)}`;
+    const m = pointAt(w.p, 0.5);
+    const d = dupPairs.get(srcKey);
+    if (d) d.count++;
+    else dupPairs.set(srcKey, { x: m.x, y: m.y, count: 1, types: `${drawing.entities[pieces[dup].src].type} and ${drawing.entities[w.src].type}` });
+  });
+  let listed = 0;
+  for (const d of dupPairs.values()) {
+    if (listed++ >= MAX_LISTED_WARNINGS) break;
+    warnings.push({ code: "duplicate_merged", message: `Overlapping duplicate channel drawn twice (${d.types} on the same path); it was counted once. Delete the copy in the drawing.`, at: at(d.x, d.y) });
+  }
+  if (dupPairs.size > MAX_LISTED_WARNINGS) warnings.push({ code: "duplicate_merged", message: `${dupPairs.size - MAX_LISTED_WARNINGS} more duplicated channels were counted once.` });
+
+  // Graph: incident piece ends per node root.
+  const incident = new Map<number, number[]>();
+  pieces.forEach((_, i) => {
+    if (!keep[i]) return;
+    for (const k of [2 * i, 2 * i + 1]) {
+      const r = uf.find(k);
+      const list = incident.get(r);
+      if (list) list.push(k);
+      else incident.set(r, [k]);
+    }
+  });
+
+  // Connected components; keep those that reach a port.
+  const comp = new Map<number, number>();
+  const compHasPort: boolean[] = [];
+  for (const root of incident.keys()) {
+    if (comp.has(root)) continue;
+    const id = compHasPort.length;
+    let hasPort = false;
+    const stack = [root];
+    comp.set(root, id);
+    while (stack.length) {
+      const r = stack.pop()!;
+      if (portOfRoot.has(r)) hasPort = true;
+      for (const k of incident.get(r)!) {
+        const other = uf.find(k ^ 1);
+        if (!comp.has(other)) {
+          comp.set(other, id);
+          stack.push(other);
+        }
+      }
+    }
+    compHasPort.push(hasPort);
+  }
+  if (ports.length === 0) {
+    const portLayers = plan.summaries.filter((l) => l.role === "port").map((l) => l.name);
+    throw layoutError(
+      "nothing_connected",
+      portLayers.length === 0
+        ? `No layer is mapped to the role "port", so no channel connects to an inlet or outlet. Draw each port as a circle on a port layer and map it in conditions.layers. Layers: ${describeLayers(plan.summaries)}.`
+        : `No port circles were found on the port layer(s) ${portLayers.join(", ")}. Draw each inlet and outlet as a circle there.`,
+      plan,
+    );
+  }
+  if (!compHasPort.some(Boolean)) {
+    throw layoutError("nothing_connected", `No channel reaches any of the ${ports.length} port circle(s): check that channel ends lie inside the port circles (or within ${fmt(snapM * 1e6)} µm of them).`, plan);
+  }
+  const dropped = new Set<number>();
+  compHasPort.forEach((has, id) => { if (!has) dropped.add(id); });
+  if (dropped.size > 0) {
+    let n = 0;
+    const firstAt = new Map<number, { x: number; y: number }>();
+    for (const [root, id] of comp) if (dropped.has(id) && !firstAt.has(id)) firstAt.set(id, { x: endX[incident.get(root)![0]], y: endY[incident.get(root)![0]] });
+    for (const p of firstAt.values()) {
+      if (n++ >= MAX_LISTED_WARNINGS) break;
+      warnings.push({ code: "unconnected_channels", message: "Channels here connect to no port and were left out of the network. Connect them or move them to another layer.", at: at(p.x, p.y) });
+    }
+  }
+  for (const [pi, port] of ports.entries()) {
+    const root = uf.find(nEnds + pi);
+    if (portOfRoot.get(root) === pi && !incident.has(root)) {
+      warnings.push({ code: "port_unconnected", message: `Port ${port.name} touches no channel; it is left out of the network.`, at: at(port.cx, port.cy) });
+    }
+  }
+
+  // Node kinds.
+  const widthCache = pieces.map((w) => widthsOf(w, mpu));
+  const endWidth = (k: number) => widthCache[k >> 1][k & 1];
+  const nodeKind = new Map<number, NodeKind | null>();
+  for (const [root, ends] of incident) {
+    if (dropped.has(comp.get(root)!)) continue;
+    let kind: NodeKind | null;
+    if (portOfRoot.has(root)) kind = "port";
+    else if (ends.length >= 3) kind = "junction";
+    else if (ends.length === 1) kind = "dead_end";
+    else {
+      const [a, b] = ends;
+      const la = pieces[a >> 1].layer;
+      const lb = pieces[b >> 1].layer;
+      const wa = endWidth(a);
+      const wb = endWidth(b);
+      const change = la !== lb || Math.abs(wa - wb) > 1e-6 * Math.max(wa, wb);
+      kind = change ? "change" : null;
+    }
+    nodeKind.set(root, kind);
+  }
+
+  // Walk segments between stop nodes.
+  const nodeId = new Map<number, string>();
+  const nodes: NetworkNode[] = [];
+  const nodeOf = (root: number): string => {
+    let id = nodeId.get(root);
+    if (id) return id;
+    id = `n${nodes.length + 1}`;
+    nodeId.set(root, id);
+    const pi = portOfRoot.get(root);
+    if (pi !== undefined) nodes.push({ id, xM: ports[pi].cx * mpu, yM: ports[pi].cy * mpu, kind: "port", port: ports[pi].name });
+    else {
+      const k = incident.get(root)![0];
+      nodes.push({ id, xM: endX[k] * mpu, yM: endY[k] * mpu, kind: nodeKind.get(root) as NodeKind, port: null });
+    }
+    return id;
+  };
+  const stops = [...nodeKind.entries()].filter(([, k]) => k !== null).map(([r]) => r);
+  stops.sort((a, b) => {
+    const pa = portOfRoot.get(a);
+    const pb = portOfRoot.get(b);
+    if (pa !== undefined || pb !== undefined) return (pa ?? Infinity) - (pb ?? Infinity);
+    return endX[incident.get(a)![0]] - endX[incident.get(b)![0]] || endY[incident.get(a)![0]] - endY[incident.get(b)![0]];
+  });
+  const usedPiece = new Uint8Array(pieces.length);
+  const segments: NetworkSegment[] = [];
+  for (const start of stops) {
+    for (const k0 of incident.get(start)!) {
+      if (usedPiece[k0 >> 1]) continue;
+      const chain: { w: Work; fwd: boolean }[] = [];
+      let k = k0;
+      let endRoot = start;
+      for (;;) {
+        const i = k >> 1;
+        usedPiece[i] = 1;
+        chain.push({ w: pieces[i], fwd: (k & 1) === 0 });
+        endRoot = uf.find(k ^ 1);
+        if (nodeKind.get(endRoot) !== null) break;
+        const next = incident.get(endRoot)!.find((e) => e >> 1 !== i && !usedPiece[e >> 1]);
+        if (next === undefined) break;
+        k = next;
+      }
+      segments.push(makeSegment(`s${segments.length + 1}`, nodeOf(start), nodeOf(endRoot), chain, mpu, widthsOf));
+    }
+  }
+  // Keep node numbering stable: ports first as walked, then the rest in walk order.
+  const networkPorts: NetworkPort[] = [];
+  for (const [root, pi] of portOfRoot) {
+    if (!incident.has(root)) continue;
+    const id = nodeOf(root);
+    networkPorts.push({ name: ports[pi].name, node: id, xM: ports[pi].cx * mpu, yM: ports[pi].cy * mpu, radiusM: ports[pi].r * mpu });
+  }
+  networkPorts.sort((a, b) => a.name.localeCompare(b.name));
+
+  const tolOutline = Math.max(snap, 1e-9 * Math.max(Math.abs(maxX - minX), Math.abs(maxY - minY)));
+  const outline = chainOutline(outlinePaths, outlineCircles, tolOutline, mpu);
+  const bounds = Number.isFinite(minX)
+    ? { minXM: minX * mpu, minYM: minY * mpu, maxXM: maxX * mpu, maxYM: maxY * mpu }
+    : { minXM: 0, minYM: 0, maxXM: 0, maxYM: 0 };
+
+  return {
+    units,
+    nodes,
+    segments,
+    ports: networkPorts,
+    warnings,
+    layers: plan.summaries,
+    outline,
+    bounds,
+    mappingProposed: plan.mappingProposed,
+  };
+}
+
+function makeSegment(
+  id: string,
+  from: string,
+  to: string,
+  chain: { w: Work; fwd: boolean }[],
+  mpu: number,
+  widths: (w: Work, mpu: number) => [number, number],
+): NetworkSegment {
+  const layer = chain[0].w.layer;
+  const path: [number, number][] = [];
+  const profile: WidthSample[] = [];
+  let s = 0;
+  let minR: number | null = null;
+  let area = 0;
+  for (const { w, fwd } of chain) {
+    const p = fwd ? w.p : reversed(w.p);
+    const [a, b] = widths(w, mpu);
+    const w0 = fwd ? a : b;
+    const w1 = fwd ? b : a;
+    if (path.length === 0) {
+      const st = startOf(p);
+      path.push([st.x * mpu, st.y * mpu]);
+    }
+    for (const pt of samplePoints(p)) path.push([pt.x * mpu, pt.y * mpu]);
+    const last = profile.at(-1);
+    if (!last || Math.abs(last.widthM - w0 * mpu) > 1e-9 * w0 * mpu || last.sM !== s * mpu) profile.push({ sM: s * mpu, widthM: w0 * mpu });
+    s += w.len;
+    profile.push({ sM: s * mpu, widthM: w1 * mpu });
+    area += ((w0 + w1) / 2) * w.len;
+    const r = p.kind === "arc" ? p.r : w.curveR;
+    if (r !== null) minR = minR === null ? r : Math.min(minR, r);
+  }
+  const lengthM = s * mpu;
+  const first = profile[0].widthM;
+  const lastW = profile[profile.length - 1].widthM;
+  let minW = Infinity;
+  let maxW = -Infinity;
+  for (const q of profile) {
+    minW = Math.min(minW, q.widthM);
+    maxW = Math.max(maxW, q.widthM);
+  }
+  // A single linear taper is described by its end widths; anything else carries its profile (and the mean width).
+  const linear = profile.every((q) => Math.abs(first + ((lastW - first) * q.sM) / (lengthM || 1) - q.widthM) <= 1e-9 * maxW);
+  const seg: NetworkSegment = {
+    id,
+    layer: layer.name,
+    from,
+    to,
+    lengthM,
+    widthM: linear ? first : (area / s) * mpu,
+    endWidthM: lastW,
+    depthM: layer.depthM as number,
+    section: layer.section,
+    minBendRadiusM: minR === null ? null : minR * mpu,
+    path,
+  };
+  if (minW !== maxW) {
+    seg.minWidthM = minW;
+    seg.maxWidthM = maxW;
+  }
+  if (!linear) seg.widthProfile = dedupeProfile(profile);
+  return seg;
+}
+
+function dedupeProfile(profile: WidthSample[]): WidthSample[] {
+  const out: WidthSample[] = [];
+  for (const q of profile) {
+    const last = out.at(-1);
+    if (last && last.sM === q.sM && last.widthM === q.widthM) continue;
+    out.push(q);
+  }
+  return out;
+}
