@@ -19,7 +19,7 @@ import { ConflictError, DomainError, NotFoundError } from "@/lib/errors";
 import { sendMail } from "@/lib/mail";
 import { invitationMail } from "@/lib/mail/templates";
 import { ROLE_LABELS, type Role } from "./roles";
-import { hashPassword, verifyPassword } from "./password";
+import { hashPassword, newPasswordSchema, verifyPassword } from "./password";
 import { createSecretToken, hashSecretToken } from "./tokens";
 
 export const INVITATION_LIFETIME_MS = 7 * 24 * 60 * 60 * 1000;
@@ -129,6 +129,10 @@ export async function acceptInvitation(
     throw new DomainError("wrong_password", "That is not the current password of this account. Enter the password you sign in with.", 401);
   }
   if (!existing && !input.name) throw new DomainError("invalid_input", "Enter your name.", 400);
+  if (!existing) {
+    const pw = newPasswordSchema.safeParse(input.password);
+    if (!pw.success) throw new DomainError("invalid_input", pw.error.issues[0].message, 400);
+  }
   const passwordHash = existing ? null : await hashPassword(input.password);
   const userId = await getDb().transaction(async (tx) => {
     if (!(await claimInvitation(tx, inv.id, now))) {
