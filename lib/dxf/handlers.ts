@@ -128,3 +128,32 @@ export class SplineWithWeights {
     return entity;
   }
 }
+
+export interface RawOther {
+  type: string;
+  layer?: string;
+  handle?: string;
+  inPaperSpace?: boolean;
+  /** The raw groups, kept for HATCH only (its boundary paths, for an outline reader). */
+  groups?: Group[];
+}
+
+/** Entity types dxf-parser has no handler for and would drop silently; registered so layers list them. */
+export const COUNTED_ONLY_TYPES = [
+  "HATCH", "MULTILEADER", "MLEADER", "LEADER", "IMAGE", "WIPEOUT", "REGION", "3DSOLID", "BODY",
+  "RAY", "XLINE", "TRACE", "TOLERANCE", "SHAPE", "MLINE", "ACAD_TABLE", "VIEWPORT", "SURFACE", "MESH",
+] as const;
+
+/** A handler class that only records type, layer and paper-space flag of one entity type. */
+export function countingHandler(typeName: string) {
+  return class {
+    public ForEntityName = typeName;
+    public parseEntity(scanner: Scanner): RawOther {
+      const entity: RawOther = { type: typeName };
+      const groups = collectGroups(scanner);
+      for (const g of groups) common(entity, g);
+      if (typeName === "HATCH") entity.groups = groups;
+      return entity;
+    }
+  };
+}

@@ -9,8 +9,9 @@ import DxfParser from "dxf-parser";
 import type { IDxf, IEntity, IBlock } from "dxf-parser";
 import { LayoutError } from "../errors";
 import { flattenNurbs, flattenParametric, minRadiusOfPolyline, type Pt } from "./curves";
-import { PolylineWithWidths, SplineWithWeights, type RawPolyline, type RawSpline } from "./handlers";
+import { COUNTED_ONLY_TYPES, countingHandler, PolylineWithWidths, SplineWithWeights, type RawPolyline, type RawSpline } from "./handlers";
 import type { ArcPiece, DrawingEntity, DxfDrawing, Piece } from "./types";
+import { INSUNITS_OTHER_NAMES, INSUNITS_TO_UNIT, METRES_PER_UNIT, type DrawingUnit } from "./units";
 
 /** Largest layout accepted by default, bytes (25 MiB). */
 export const MAX_LAYOUT_BYTES = 25 * 1024 * 1024;
@@ -21,8 +22,10 @@ const MAX_INSERT_DEPTH = 16;
 export interface ReadDxfOptions {
   /** Size limit in bytes (default MAX_LAYOUT_BYTES). */
   maxBytes?: number;
-  /** Chord tolerance for splines and ellipses, drawing units. */
-  chordTolerance: number;
+  /** Chord tolerance for flattening splines and ellipses, metres. */
+  chordToleranceM: number;
+  /** Drawing unit from the conditions; overrides $INSUNITS. */
+  units?: DrawingUnit;
 }
 
 /** 2-D affine map: x' = a·x + b·y + e, y' = c·x + d·y + f. */
@@ -88,6 +91,7 @@ function parseText(text: string): IDxf {
   // dxf-parser's handler type names its own classes; ours have the same shape.
   parser.registerEntityHandler(PolylineWithWidths as never);
   parser.registerEntityHandler(SplineWithWeights as never);
+  for (const t of COUNTED_ONLY_TYPES) parser.registerEntityHandler(countingHandler(t) as never);
   const originalError = console.error;
   try {
     // dxf-parser reports some oddities with console.error and carries on; keep them off the CLI's output.
@@ -443,12 +447,29 @@ function checkFinite(entities: DrawingEntity[]) {
 export function readDxf(input: string | Uint8Array, options: ReadDxfOptions): DxfDrawing {
   const text = decodeLayout(input, options.maxBytes);
   const dxf = parseText(text);
-  const ctx: Ctx = { blocks: dxf.blocks ?? {}, tol: options.chordTolerance, out: [], counts: new Map(), notes: new Map(), expanded: 0 };
-  walk(ctx, dxf.entities ?? [], IDENTITY, null, 0, []);
+  const rawIns = dxf.header?.["$INSUNITS"];
+  const insUnits = typeof rawIns === "number" && Number.isFinite(rawIns) ? rawIns : null;
+  const fromFile = insUnits === null ? undefined : INSUNITS_TO_UNIT[insUnits];
+  const drawingUnit = options.units ?? fromFile;
+  const units = drawingUnit
+    ? { drawing: drawingUnit, source: options.units ? ("conditions" as const) : ("$INSUNITS" as const), metresPerUnit: METRES_PER_UNIT[drawingUnit] }
+    : null;
+  const declared = insUnits === null ? "does not declare its units ($INSUNITS is absent)" : `declares $INSUNITS = ${insUnits} (${INSUNITS_OTHER_NAMES[insUnits] ?? "unknown code"})`;
+  const unitsProblem = units
+    ? null
+    : `The drawing ${declared}. Say which unit its coordinates are in: add "units": "um" (or nm, mm, cm, m, in, mil) to the conditions.`;
+  // Without known units, flatten as if in micrometres: only the layer listing uses such a read.
+  const tol = options.chordToleranceM / (units?.metresPerUnit ?? 1e-6);
+  const ctx: Ctx = { blocks: dxf.blocks ?? {}, tol, out: [], counts: new Map(), notes: new Map(), expanded: 0 };
+  // Some writers put model space only in the *Model_Space block and leave out the ENTITIES section.
+  const modelBlock = Object.entries(ctx.blocks).find(([name]) => name.toLowerCase() === "*model_space")?.[1];
+  const top = dxf.entities && dxf.entities.length > 0 ? dxf.entities : (modelBlock?.entities ?? []);
+  walk(ctx, top, IDENTITY, null, 0, []);
   checkFinite(ctx.out);
-  const ins = dxf.header?.["$INSUNITS"];
   return {
-    insUnits: typeof ins === "number" && Number.isFinite(ins) ? ins : null,
+    insUnits,
+    units,
+    unitsProblem,
     entities: ctx.out,
     layerCounts: ctx.counts,
     notes: [...ctx.notes.values()].map((n) => ({ code: n.code, message: n.n > 1 ? `${n.message} (${n.n} times)` : n.message })),

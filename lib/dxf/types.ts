@@ -2,6 +2,7 @@
  * Typed drawing entities in drawing units, world coordinates (blocks already
  * expanded, OCS already resolved). Pure data, produced by readDxf.
  */
+import type { DrawingUnits } from "../network/types";
 
 /** A straight piece of centreline. Widths are the drawn polyline widths (null: none drawn). */
 export interface LinePiece {
@@ -66,6 +67,10 @@ export type DrawingEntity = PathEntity | CircleEntity | TextEntity;
 export interface DxfDrawing {
   /** $INSUNITS code from the header, or null when absent. */
   insUnits: number | null;
+  /** Resolved drawing units (conditions first, then $INSUNITS), or null when neither is usable. */
+  units: DrawingUnits | null;
+  /** Why units is null, in words that say what to add. */
+  unitsProblem: string | null;
   entities: DrawingEntity[];
   /** Model-space entity counts per layer, by DXF type (after block expansion; includes types not read). */
   layerCounts: Map<string, Record<string, number>>;

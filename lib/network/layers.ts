@@ -41,6 +41,18 @@ export function proposeRole(name: string, byType: Record<string, number>, closed
   return "ignore";
 }
 
+/** Every model-space layer of the drawing with its counts and the role its contents suggest, sorted by name. */
+export function summarizeLayers(drawing: DxfDrawing): { name: string; entities: number; byType: Record<string, number>; proposedRole: LayerRole }[] {
+  const closedByLayer = new Map<string, number>();
+  for (const e of drawing.entities) if (e.kind === "path" && e.closed) closedByLayer.set(e.layer, (closedByLayer.get(e.layer) ?? 0) + 1);
+  return [...drawing.layerCounts.keys()]
+    .sort((a, b) => a.localeCompare(b))
+    .map((name) => {
+      const byType = drawing.layerCounts.get(name) ?? {};
+      return { name, entities: Object.values(byType).reduce((a, b) => a + b, 0), byType, proposedRole: proposeRole(name, byType, closedByLayer.get(name) ?? 0) };
+    });
+}
+
 /**
  * Resolve the layer roles for a drawing.
  * @throws ConditionsError when a layer's width or depth is not a length.
@@ -50,18 +62,11 @@ export function planLayers(drawing: DxfDrawing, conditions: GeometryConditions):
   const namedKeys = Object.keys(named);
   const mappingProposed = namedKeys.length === 0;
   const byUpper = new Map(namedKeys.map((k) => [k.toUpperCase(), k]));
-  const closedByLayer = new Map<string, number>();
-  for (const e of drawing.entities) if (e.kind === "path" && e.closed) closedByLayer.set(e.layer, (closedByLayer.get(e.layer) ?? 0) + 1);
-
   const byName = new Map<string, ResolvedLayer>();
   const summaries: LayerSummary[] = [];
   const unmapped: string[] = [];
   const seen = new Set<string>();
-  const layerNames = [...drawing.layerCounts.keys()].sort((a, b) => a.localeCompare(b));
-  for (const name of layerNames) {
-    const byType = drawing.layerCounts.get(name) ?? {};
-    const entities = Object.values(byType).reduce((a, b) => a + b, 0);
-    const proposed = proposeRole(name, byType, closedByLayer.get(name) ?? 0);
+  for (const { name, byType, entities, proposedRole: proposed } of summarizeLayers(drawing)) {
     const key = byUpper.get(name.toUpperCase());
     if (key !== undefined) {
       seen.add(key);
