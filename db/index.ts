@@ -23,7 +23,7 @@ export function resolveDatabaseUrl(url: string): string {
   if (!url.startsWith("file:")) return url;
   const rest = url.slice("file:".length);
   if (rest === ":memory:") return url;
-  const filePath = path.isAbsolute(rest) ? rest : path.resolve(process.cwd(), rest);
+  const filePath = path.isAbsolute(rest) ? rest : path.resolve(/*turbopackIgnore: true*/ process.cwd(), rest);
   mkdirSync(path.dirname(filePath), { recursive: true });
   return `file:${filePath}`;
 }
