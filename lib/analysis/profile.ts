@@ -64,7 +64,8 @@ function portNode(doc: AnalyzeJson, name: string, role: string): string {
 
 /** Downstream edges: each segment that carries flow, pointed the way the fluid goes. */
 function flowEdges(doc: AnalyzeJson): Edge[] {
-  const maxFlow = Math.max(0, ...doc.segments.map((s) => Math.abs(s.flow_m3_per_s ?? 0)));
+  let maxFlow = 0;
+  for (const s of doc.segments) maxFlow = Math.max(maxFlow, Math.abs(s.flow_m3_per_s ?? 0));
   const eps = NO_FLOW_FRACTION * maxFlow;
   const edges: Edge[] = [];
   for (const s of doc.segments) {
@@ -185,7 +186,7 @@ export function pressureProfile(doc: AnalyzeJson, fromPort: string, toPort: stri
     points,
     lengthM: distanceM,
     pressureDropPa: points[0].pressurePa - points[points.length - 1].pressurePa,
-    bottleneckFlowM3PerS: Math.min(...steps.map((s) => s.flowM3PerS)),
+    bottleneckFlowM3PerS: steps.reduce((m, s) => Math.min(m, s.flowM3PerS), Infinity),
   };
 }
 

@@ -8,7 +8,7 @@
  *
  * The path, in plain words:
  *   draft ──submit──▶ with_fluidics ──pass_fluidics──▶ with_fab ──clear──▶ cleared (frozen)
- *                        │   ▲                            │
+ *                        │   ▲  ↺ update_analysis (designer's fix)  │
  *          request_changes   └──submit── changes_requested ◀── request_changes
  *   any state before cleared ──withdraw (uploader)──▶ withdrawn
  */
@@ -77,7 +77,8 @@ export interface ReviewState {
 export interface ReviewFlag {
   key: string;
   code: string;
-  severity: "info" | "warn" | "block" | string;
+  /** "info" | "warn" | "block" (lib/hydraulics/types.ts FlagSeverity). */
+  severity: string;
   value: number | null;
   title?: string;
 }
@@ -108,6 +109,7 @@ export interface ReviewContext {
 
 export type ReviewEvent =
   | { type: "submit"; expectedVersion: number; note: string }
+  | { type: "update_analysis"; expectedVersion: number; note?: string | null }
   | { type: "dispose_flag"; expectedVersion: number; flagKey: string; decision: FlagDecision; justification?: string | null }
   | { type: "pass_fluidics"; expectedVersion: number; note?: string | null }
   | { type: "request_changes"; expectedVersion: number; note: string }
@@ -115,7 +117,7 @@ export type ReviewEvent =
   | { type: "withdraw"; expectedVersion: number; reason?: string | null };
 
 export type ReviewEventType = ReviewEvent["type"];
-export const REVIEW_EVENT_TYPES: readonly ReviewEventType[] = ["submit", "dispose_flag", "pass_fluidics", "request_changes", "clear", "withdraw"];
+export const REVIEW_EVENT_TYPES: readonly ReviewEventType[] = ["submit", "update_analysis", "dispose_flag", "pass_fluidics", "request_changes", "clear", "withdraw"];
 
 export type NotificationKind = "review_requested" | "changes_requested" | "cleared" | "mentioned";
 
@@ -198,6 +200,7 @@ const BEFORE_CLEARANCE: readonly ReviewStatus[] = ["draft", "with_fluidics", "wi
 
 const GATES: Record<ReviewEventType, Gate> = {
   submit: { roles: ["designer"], from: ["draft", "changes_requested"], uploader: "allowed", doing: "submit it for review" },
+  update_analysis: { roles: ["designer"], from: ["with_fluidics"], uploader: "allowed", doing: "put a newer analysis under review" },
   dispose_flag: { roles: ["fluidics_reviewer"], from: ["with_fluidics"], uploader: "forbidden", doing: "dispose of its flags" },
   pass_fluidics: { roles: ["fluidics_reviewer"], from: ["with_fluidics"], uploader: "forbidden", doing: "pass its fluidics review" },
   request_changes: { roles: ["fluidics_reviewer", "fab_liaison"], from: ["with_fluidics", "with_fab"], uploader: "forbidden", doing: "request changes" },
@@ -371,6 +374,24 @@ export function transition(state: ReviewState, event: ReviewEvent, actor: Review
         { ...base, status: "with_fluidics", analysisId: analysis.id },
         { action: "review.submitted", details: { from, to: "with_fluidics", note, analysisId: analysis.id, resubmitted } },
         [{ kind: "review_requested", to: [fluidicsReviewers(state)], details: { stage: "fluidics", note, analysisId: analysis.id, resubmitted } }],
+      );
+    }
+
+    case "update_analysis": {
+      // The designer's fix during fluidics review: a newer analysed operating point replaces the one under review.
+      // Dispositions stay keyed by flag, so a must-fix flag the new analysis no longer raises counts as fixed.
+      const note = optionalText(event.note, "The note");
+      const analysis = requireAnalysis(context, state, false);
+      if (!analysis.hasOperatingPoint) {
+        throw new ConflictError("no_operating_point", "Put an analysed operating point under review: this analysis has geometry only.");
+      }
+      if (analysis.id === state.analysisId) {
+        throw new ConflictError("analysis_unchanged", "This analysis is already the one under review; analyse the fixed layout first.");
+      }
+      return done(
+        { ...base, analysisId: analysis.id },
+        { action: "review.analysis_updated", details: { previousAnalysisId: state.analysisId, analysisId: analysis.id, note } },
+        [{ kind: "review_requested", to: [fluidicsReviewers(state)], details: { stage: "fluidics", note, analysisId: analysis.id, updated: true } }],
       );
     }
 

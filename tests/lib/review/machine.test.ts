@@ -71,6 +71,7 @@ function stateIn(status: ReviewStatus, over: Partial<ReviewState> = {}): ReviewS
 function eventOf(type: ReviewEventType, version: number): ReviewEvent {
   switch (type) {
     case "submit": return { type, expectedVersion: version, note: "Widened the mixer to lower Re." };
+    case "update_analysis": return { type, expectedVersion: version, note: "Fixed the turbulent segment." };
     case "dispose_flag": return { type, expectedVersion: version, flagKey: flagKey(BLOCK), decision: "waived", justification: JUSTIFICATION };
     case "pass_fluidics": return { type, expectedVersion: version };
     case "request_changes": return { type, expectedVersion: version, note: "Please fix the turbulent segment." };
@@ -82,6 +83,7 @@ function eventOf(type: ReviewEventType, version: number): ReviewEvent {
 /** The actor who may take each step, and a state it may start from, where all gates pass. */
 const RIGHT: Record<ReviewEventType, { actor: ReviewActor; from: ReviewStatus[] }> = {
   submit: { actor: designer, from: ["draft", "changes_requested"] },
+  update_analysis: { actor: designer, from: ["with_fluidics"] },
   dispose_flag: { actor: fluidics, from: ["with_fluidics"] },
   // Fluidics reviewers request changes at their stage; fab liaisons at theirs (checked separately below).
   request_changes: { actor: fluidics, from: ["with_fluidics"] },
@@ -93,6 +95,7 @@ const RIGHT: Record<ReviewEventType, { actor: ReviewActor; from: ReviewStatus[] 
 /** States a step may start from (issue 7's path). */
 const FROM: Record<ReviewEventType, ReviewStatus[]> = {
   submit: ["draft", "changes_requested"],
+  update_analysis: ["with_fluidics"],
   dispose_flag: ["with_fluidics"],
   pass_fluidics: ["with_fluidics"],
   request_changes: ["with_fluidics", "with_fab"],
@@ -103,6 +106,7 @@ const FROM: Record<ReviewEventType, ReviewStatus[]> = {
 /** Roles that may take each step (issue 7). */
 const ALLOWED_ROLES: Record<ReviewEventType, Role[]> = {
   submit: ["designer"],
+  update_analysis: ["designer"],
   dispose_flag: ["fluidics_reviewer"],
   pass_fluidics: ["fluidics_reviewer"],
   request_changes: ["fluidics_reviewer", "fab_liaison"],
@@ -312,6 +316,36 @@ describe("submit", () => {
   });
 });
 
+describe("the designer's fix during fluidics review (update_analysis)", () => {
+  it("runs issue 7's path: submit; waive one flag, must-fix another; designer puts a fixed analysis under review; pass; clear", () => {
+    const mustFixFlag = { code: "wall_shear_high", target: { kind: "segment", id: "s8" } };
+    const first: ReviewAnalysis = { ...analysisA, flags: [...analysisA.flags, { key: flagKey(mustFixFlag), code: mustFixFlag.code, severity: "block", value: 3.2 }] };
+    let s = transition(createReviewState(UPLOADER), eventOf("submit", 0), designer, ctx({ analysis: first })).next;
+    s = transition(s, eventOf("dispose_flag", s.version), fluidics, ctx({ analysis: first })).next;
+    s = transition(s, { type: "dispose_flag", expectedVersion: s.version, flagKey: flagKey(mustFixFlag), decision: "must_fix", justification: "Widen s8." }, fluidics, ctx({ analysis: first })).next;
+    // The fix: s8 widened, so the newer analysis no longer raises the wall-shear flag; the waived flag is unchanged.
+    const fixed: ReviewAnalysis = { id: "an-fix", hasOperatingPoint: true, flags: analysisA.flags };
+    const stale = thrown(() => transition(s, eventOf("pass_fluidics", s.version), fluidics, ctx({ analysis: fixed }))) as DomainError;
+    expect(stale.code).toBe("analysis_changed"); // the fix must be put under review first
+    const upd = transition(s, eventOf("update_analysis", s.version), designer, ctx({ analysis: fixed }));
+    expect(upd.next.status).toBe("with_fluidics");
+    expect(upd.next.analysisId).toBe("an-fix");
+    expect(upd.effects.audit).toMatchObject({ action: "review.analysis_updated", details: { previousAnalysisId: "an-1", analysisId: "an-fix" } });
+    expect(upd.effects.notifications[0]).toMatchObject({ kind: "review_requested", details: { updated: true } });
+    s = upd.next;
+    s = transition(s, eventOf("pass_fluidics", s.version), fluidics, ctx({ analysis: fixed })).next;
+    const cleared = transition(s, eventOf("clear", s.version), fab, ctx({ analysis: fixed }));
+    expect(cleared.next.status).toBe("cleared");
+    expect(cleared.next.clearance?.analysisId).toBe("an-fix");
+  });
+
+  it("refuses a geometry-only analysis and the analysis already under review (409)", () => {
+    const s = stateIn("with_fluidics");
+    expect((thrown(() => transition(s, eventOf("update_analysis", 7), designer, ctx({ analysis: { ...analysisA, id: "g", hasOperatingPoint: false } }))) as DomainError).code).toBe("no_operating_point");
+    expect((thrown(() => transition(s, eventOf("update_analysis", 7), designer, ctx())) as DomainError).code).toBe("analysis_unchanged");
+  });
+});
+
 describe("disposing of flags", () => {
   it(`a waiver needs a written justification of at least ${MIN_WAIVER_JUSTIFICATION_CHARS} characters`, () => {
     const short = "x".repeat(MIN_WAIVER_JUSTIFICATION_CHARS - 1);
@@ -461,9 +495,10 @@ describe("frozen and withdrawn revisions", () => {
 describe("allowedEvents (what the UI shows)", () => {
   it("lists each role's steps at each stage", () => {
     expect(allowedEvents(stateIn("draft"), ["designer"], true)).toEqual(["submit", "withdraw"]);
+    expect(allowedEvents(stateIn("with_fluidics"), ["designer"], true)).toEqual(["update_analysis", "withdraw"]);
     expect(allowedEvents(stateIn("draft"), ["designer"], false)).toEqual(["submit"]);
     expect(allowedEvents(stateIn("with_fluidics"), ["fluidics_reviewer"], false)).toEqual(["dispose_flag", "pass_fluidics", "request_changes"]);
-    expect(allowedEvents(stateIn("with_fluidics"), ["fluidics_reviewer", "designer"], true)).toEqual(["withdraw"]);
+    expect(allowedEvents(stateIn("with_fluidics"), ["fluidics_reviewer", "designer"], true)).toEqual(["update_analysis", "withdraw"]);
     expect(allowedEvents(stateIn("with_fab"), ["fab_liaison"], false)).toEqual(["request_changes", "clear"]);
     expect(allowedEvents(stateIn("with_fab"), ["fluidics_reviewer"], false)).toEqual([]);
   });
