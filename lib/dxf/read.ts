@@ -92,10 +92,10 @@ function parseText(text: string): IDxf {
   parser.registerEntityHandler(PolylineWithWidths as never);
   parser.registerEntityHandler(SplineWithWeights as never);
   for (const t of COUNTED_ONLY_TYPES) parser.registerEntityHandler(countingHandler(t) as never);
-  const originalError = console.error;
+  const saved = { error: console.error, log: console.log, warn: console.warn };
   try {
-    // dxf-parser reports some oddities with console.error and carries on; keep them off the CLI's output.
-    console.error = () => undefined;
+    // dxf-parser reports oddities on the console and carries on; keep them off the CLI's JSON output.
+    console.error = console.log = console.warn = () => undefined;
     const dxf = parser.parseSync(text);
     if (!dxf) throw new Error("no result");
     return dxf;
@@ -106,7 +106,9 @@ function parseText(text: string): IDxf {
     }
     throw new LayoutError("unreadable_dxf", `The DXF could not be read (${msg.slice(0, 200)}). Export it again as an ASCII DXF.`);
   } finally {
-    console.error = originalError;
+    console.error = saved.error;
+    console.log = saved.log;
+    console.warn = saved.warn;
   }
 }
 

@@ -72,11 +72,11 @@ function layoutError(code: string, message: string, plan?: LayerPlan): LayoutErr
   return new LayoutError(code, message, plan ? { layers: plan.summaries } : undefined);
 }
 
-/** Widths of a piece in drawing units: its own drawn width, else the layer's. */
+/** Widths of a piece in metres at its two ends: its own drawn width, else the layer's. */
 function widthsOf(w: Work, mpu: number): [number, number] {
-  const lw = w.layer.widthM === null ? null : w.layer.widthM / mpu;
-  const w0 = w.p.w0 ?? lw;
-  const w1 = w.p.w1 ?? lw;
+  const lw = w.layer.widthM;
+  const w0 = w.p.w0 === null ? lw : w.p.w0 * mpu;
+  const w1 = w.p.w1 === null ? lw : w.p.w1 * mpu;
   if (w0 === null || w1 === null) {
     throw new LayoutError(
       "width_missing",
@@ -655,9 +655,9 @@ function makeSegment(
     }
     for (const pt of samplePoints(p)) path.push([pt.x * mpu, pt.y * mpu]);
     const last = profile.at(-1);
-    if (!last || Math.abs(last.widthM - w0 * mpu) > 1e-9 * w0 * mpu || last.sM !== s * mpu) profile.push({ sM: s * mpu, widthM: w0 * mpu });
+    if (!last || Math.abs(last.widthM - w0) > 1e-9 * w0 || last.sM !== s * mpu) profile.push({ sM: s * mpu, widthM: w0 });
     s += w.len;
-    profile.push({ sM: s * mpu, widthM: w1 * mpu });
+    profile.push({ sM: s * mpu, widthM: w1 });
     area += ((w0 + w1) / 2) * w.len;
     const r = p.kind === "arc" ? p.r : w.curveR;
     if (r !== null) minR = minR === null ? r : Math.min(minR, r);
@@ -679,7 +679,7 @@ function makeSegment(
     from,
     to,
     lengthM,
-    widthM: linear ? first : (area / s) * mpu,
+    widthM: linear ? first : area / s,
     endWidthM: lastW,
     depthM: layer.depthM as number,
     section: layer.section,
