@@ -19,6 +19,7 @@ import { PortSummary } from "./port-summary";
 import { PressureProfileChart } from "./pressure-profile";
 import { RegimeChart } from "./regime-chart";
 import { SegmentTable } from "./segment-table";
+import { WhenVisible } from "./when-visible";
 import { asSeverity, DEFAULT_UNITS, SEVERITY_LABEL, SEVERITY_ORDER, type AnalysisWorkbenchProps, type FlowUnit, type PressureUnit, type Severity, type UnitPreferences } from "./types";
 
 const PRESSURE_UNITS: PressureUnit[] = ["mbar", "kPa", "psi"];
@@ -203,8 +204,12 @@ export function AnalysisWorkbench(props: AnalysisWorkbenchProps) {
       <SegmentTable id={tableId} segments={analysis.segments} fields={fields} flagsBySegment={flagsBySegment} selectedId={selectedId} onSelect={select} exportName={props.exportName ?? "stokeline"} />
 
       <div className="grid gap-4 xl:grid-cols-2">
-        <RegimeChart analysis={analysis} flagsBySegment={flagsBySegment} selectedId={selectedId} onSelect={select} />
-        <PressureProfileChart analysis={analysis} pressure={pressureView} selectedId={selectedId} onSelect={select} />
+        <WhenVisible minHeight={470} label="Regime map (loads when scrolled into view)…">
+          <RegimeChart analysis={analysis} flagsBySegment={flagsBySegment} selectedId={selectedId} onSelect={select} />
+        </WhenVisible>
+        <WhenVisible minHeight={380} label="Pressure profile (loads when scrolled into view)…">
+          <PressureProfileChart analysis={analysis} pressure={pressureView} selectedId={selectedId} onSelect={select} />
+        </WhenVisible>
       </div>
     </div>
   );

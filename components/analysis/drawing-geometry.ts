@@ -106,7 +106,8 @@ export interface HitIndex {
  */
 export function buildHitIndex(segments: AnalyzeSegmentJson[], box: ViewBox): HitIndex {
   const diag = Math.hypot(box.maxX - box.minX, box.maxY - box.minY);
-  const spacing = Math.max(diag / 1500, 1);
+  // Coarse sampling is enough: hitSegment widens its search by the spacing and measures exactly.
+  const spacing = Math.max(diag / 400, 1);
   const pts: Sample[] = [];
   let maxHalfWidth = 0;
   segments.forEach((s, i) => {
