@@ -6,6 +6,7 @@
 const parts: { name: string; load: () => Promise<{ run: () => Promise<void> }> }[] = [
   { name: "layout reader: DXF to network", load: () => import("./geometry") },
   { name: "hydraulics solve", load: () => import("./solve") },
+  { name: "chip drawing in headless Chromium", load: () => import("./drawing") },
 ];
 
 const only = process.argv[2];
@@ -15,3 +16,5 @@ for (const part of parts) {
   const mod = await part.load();
   await mod.run();
 }
+
+export {};

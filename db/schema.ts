@@ -157,3 +157,6 @@ export const signInAttempts = sqliteTable(
   (t) => [index("sign_in_attempts_email_at").on(t.email, t.at), index("sign_in_attempts_address_at").on(t.clientAddress, t.at)],
 );
 export type SignInAttemptRow = typeof signInAttempts.$inferSelect;
+
+// Chips, revisions, analyses and workspace settings (issue: chips and revisions).
+export * from "./schema-chips";
