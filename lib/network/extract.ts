@@ -350,7 +350,10 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     }
     const rl = plan.byName.get(l.name)!;
     if (rl.depthM === null && lines > 0) {
-      throw layoutError("depth_missing", `Layer "${l.name}" is a channel layer but has no depth: add "depth" (e.g. "50 um") to conditions.layers.${l.name}.`, plan);
+      const proposal = plan.mappingProposed
+        ? ` The conditions name no layers; Stokeline proposes ${plan.summaries.map((x) => `${x.name} → ${x.role}`).join(", ")}. Save that mapping with a depth (and width) for each channel layer.`
+        : "";
+      throw layoutError("depth_missing", `Layer "${l.name}" is a channel layer but has no depth: add "depth" (e.g. "50 um") to conditions.layers.${l.name}.${proposal}`, plan);
     }
   }
   for (const w of works) widthsOf(w, mpu);
