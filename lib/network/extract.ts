@@ -356,7 +356,11 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       throw layoutError("depth_missing", `Layer "${l.name}" is a channel layer but has no depth: add "depth" (e.g. "50 um") to conditions.layers.${l.name}.${proposal}`, plan);
     }
   }
-  for (const w of works) widthsOf(w, mpu);
+  try {
+    for (const w of works) widthsOf(w, mpu);
+  } catch (e) {
+    throw e instanceof LayoutError ? layoutError(e.code, e.message, plan) : e;
+  }
 
   // Ports and trimming.
   const ports = nameports(portCircles, texts, warnings, mpu);
