@@ -55,7 +55,7 @@ export async function listInvitations(scope: WorkspaceScope, now = new Date()): 
 export async function insertInvitation(
   tx: Tx | Db,
   scope: WorkspaceScope,
-  values: { email: string; roles: Role[]; tokenHash: string; expiresAt: Date },
+  values: { email: string; roles: Role[]; tokenHash: string; expiresAt: Date; createdAt?: Date },
 ): Promise<number> {
   const [row] = await tx
     .insert(invitations)

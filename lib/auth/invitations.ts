@@ -46,7 +46,7 @@ export async function inviteMember(
   const db = getDb();
   const invitationId = await db.transaction(async (tx) => {
     if (previous !== null) await markInvitationRevoked(tx, scope, previous, now);
-    const id = await insertInvitation(tx, scope, { email: input.email, roles: input.roles, tokenHash, expiresAt });
+    const id = await insertInvitation(tx, scope, { email: input.email, roles: input.roles, tokenHash, expiresAt, createdAt: now });
     await insertAuditEvent(tx, {
       workspaceId: scope.workspaceId,
       actorUserId: scope.userId,
