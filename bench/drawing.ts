@@ -110,7 +110,7 @@ createRoot(document.getElementById("root")!).render(<AnalysisWorkbench {...props
       write: false,
       format: "iife",
       jsx: "automatic",
-      minify: true,
+      minify: process.env.BENCH_NO_MINIFY !== "1",
       target: "es2022",
       nodePaths: [path.join(ROOT, "node_modules")],
       tsconfig: path.join(ROOT, "tsconfig.json"),

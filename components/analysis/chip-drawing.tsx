@@ -7,7 +7,7 @@
  * buttons and keys (arrows pan, + / − zoom, 0 fits). Hover shows the numbers,
  * click selects; hit-testing uses a d3-quadtree in both modes.
  */
-import { memo, useCallback, useEffect, useId, useMemo, useRef, useState, type KeyboardEvent, type ReactNode } from "react";
+import { memo, useCallback, useEffect, useId, useLayoutEffect, useMemo, useRef, useState, type KeyboardEvent, type ReactNode } from "react";
 import { select } from "d3-selection";
 import { zoom as d3zoom, zoomIdentity, type ZoomBehavior, type ZoomTransform } from "d3-zoom";
 import type { AnalyzeJson, AnalyzeSegmentJson } from "@/lib/analysis/serialize";
@@ -76,8 +76,8 @@ export function ChipDrawing(props: ChipDrawingProps) {
   const index = useMemo(() => buildHitIndex(analysis.segments, box), [analysis, box]);
   const byId = useMemo(() => new Map(analysis.segments.map((s) => [s.id, s])), [analysis]);
 
-  // Track the host's size (its height is fixed by CSS, so nothing jumps on hydration).
-  useEffect(() => {
+  // Track the host's size (its height is fixed by CSS, so nothing jumps on hydration); measured before the first paint.
+  useLayoutEffect(() => {
     const el = hostRef.current;
     if (!el) return;
     const measure = () => setSize({ w: el.clientWidth, h: el.clientHeight });
@@ -112,9 +112,11 @@ export function ChipDrawing(props: ChipDrawingProps) {
     };
   }, [box, size]);
 
-  // Canvas mode: paint channels batched by colour and width.
+  // Canvas mode: paint channels batched by colour and width (batches rebuilt only when colours change).
+  // eslint-disable-next-line react-hooks/exhaustive-deps
+  const batches = useMemo(() => (useCanvas ? canvasBatches(analysis.segments, colourOf) : []), [useCanvas, analysis, colourKey]);
   useEffect(() => {
-    if (!useCanvas || !size) return;
+    if (!useCanvas || !size || t === zoomIdentity) return;
     const canvas = canvasRef.current;
     const ctx = canvas?.getContext("2d");
     if (!canvas || !ctx) return;
@@ -127,16 +129,14 @@ export function ChipDrawing(props: ChipDrawingProps) {
       ctx.setTransform(dpr * t.k, 0, 0, dpr * t.k, dpr * t.x, dpr * t.y);
       ctx.lineCap = "round";
       ctx.lineJoin = "round";
-      for (const batch of canvasBatches(analysis.segments, colourOf)) {
+      for (const batch of batches) {
         ctx.strokeStyle = batch.colour;
         ctx.lineWidth = Math.max(batch.widthUm, 1 / t.k);
         ctx.stroke(batch.path);
       }
     });
     return () => cancelAnimationFrame(frame);
-    // colourKey stands for colourOf's content.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [useCanvas, size, t, analysis, colourKey]);
+  }, [useCanvas, size, t, batches]);
 
   useEffect(() => {
     if (!size || readySent.current || t === zoomIdentity) return;

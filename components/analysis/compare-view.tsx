@@ -72,7 +72,7 @@ export function CompareView(props: CompareViewProps) {
       {nothing && <p className="text-sm text-ink-700">No difference in geometry, ports or flags within the comparison tolerances.</p>}
 
       {c.segments.changed.length > 0 && (
-        <div className="mb-3 max-h-64 overflow-auto">
+        <div className="relative mb-3 max-h-64 overflow-auto">
           <table className="w-full text-xs tabular-nums">
             <caption className="mb-1 text-left font-medium text-ink-800">Changed segments</caption>
             <thead className="bg-ink-50 text-left text-ink-800">

@@ -17,7 +17,7 @@ export function FlagsList({ analysis, selectedId, onSelect }: { analysis: Analyz
         Flags <span className="font-normal text-ink-600">({analysis.flags.length})</span>
       </h2>
       {analysis.flags.length === 0 && <p className="text-xs text-ink-700">No rule raised a flag for this operating point.</p>}
-      <div className="max-h-[26rem] space-y-3 overflow-auto pr-1">
+      <div className="relative max-h-[26rem] space-y-3 overflow-auto pr-1">
         {groups.filter((g) => g.flags.length > 0).map((g) => (
           <div key={g.severity} data-severity={g.severity}>
             <h3 className={`mb-1 inline-flex items-center gap-1.5 rounded border px-1.5 py-0.5 text-xs font-semibold ${TONE[g.severity]}`}>

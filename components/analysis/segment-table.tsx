@@ -50,6 +50,7 @@ export function SegmentTable({ id, segments, fields, flagsBySegment, selectedId,
   const [search, setSearch] = useState("");
   const [pagination, setPagination] = useState({ pageIndex: 0, pageSize: PAGE_SIZE });
   const selectedRowRef = useRef<HTMLTableRowElement>(null);
+  const scrollRef = useRef<HTMLDivElement>(null);
 
   const layers = useMemo(() => [...new Set(segments.map((s) => s.layer))].sort(), [segments]);
 
@@ -124,8 +125,16 @@ export function SegmentTable({ id, segments, fields, flagsBySegment, selectedId,
     const page = Math.floor(at / PAGE_SIZE);
     setPagination((p) => (p.pageIndex === page ? p : { ...p, pageIndex: page }));
   }, [selectedId, sortedRows]);
+  // Scroll the table's own box only: moving the window would carry the drawing out of sight.
   useEffect(() => {
-    selectedRowRef.current?.scrollIntoView({ block: "nearest", behavior: "smooth" });
+    const box = scrollRef.current;
+    const row = selectedRowRef.current;
+    if (!box || !row) return;
+    const b = box.getBoundingClientRect();
+    const r = row.getBoundingClientRect();
+    const head = box.querySelector("thead")?.getBoundingClientRect().height ?? 0;
+    if (r.top < b.top + head) box.scrollTop -= b.top + head - r.top;
+    else if (r.bottom > b.bottom) box.scrollTop += r.bottom - b.bottom;
   }, [selectedId, pagination.pageIndex]);
 
   const exportCsv = () => {
@@ -194,7 +203,7 @@ export function SegmentTable({ id, segments, fields, flagsBySegment, selectedId,
           Export CSV
         </button>
       </div>
-      <div className="max-h-[28rem] overflow-auto">
+      <div ref={scrollRef} className="relative max-h-[28rem] overflow-auto">
         <table id={id} className="w-full border-collapse text-xs tabular-nums">
           <caption className="sr-only">Segment values in engineering units; sortable by the column buttons; the drawing shows the same segments.</caption>
           <thead className="sticky top-0 z-10 bg-ink-50">
