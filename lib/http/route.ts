@@ -8,6 +8,7 @@ import "server-only";
 import { z } from "zod";
 import { DomainError } from "@/lib/errors";
 import { describeZodError, errorResponse } from "./errors";
+import { runWithRequest } from "./request-context";
 
 /** Largest JSON body accepted by JSON routes (file uploads use their own limit). */
 export const MAX_JSON_BYTES = 64 * 1024;
@@ -54,7 +55,7 @@ export function route<P extends z.ZodType = z.ZodType<Record<string, never>>, Q 
   schemas: Schemas<P, Q, B>,
   handler: (input: RouteInput<z.output<P>, z.output<Q>, z.output<B>>) => Promise<unknown>,
 ): (req: Request, ctx: RouteContext) => Promise<Response> {
-  return async (req, ctx) => {
+  return (req, ctx) => runWithRequest(req, async () => {
     try {
       const rawParams = (await ctx?.params) ?? {};
       const params = schemas.params ? schemas.params.safeParse(rawParams) : { success: true as const, data: rawParams };
@@ -75,7 +76,7 @@ export function route<P extends z.ZodType = z.ZodType<Record<string, never>>, Q 
     } catch (err) {
       return errorResponse(err);
     }
-  };
+  });
 }
 
 /** Route param: a positive integer id given as text. */
