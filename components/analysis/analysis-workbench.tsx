@@ -12,7 +12,7 @@ import { ChipDrawing, flagMarkers } from "./chip-drawing";
 import { ColourLegend } from "./colour-legend";
 import { CompareView, overlayFromComparison } from "./compare-view";
 import { CautionsPanel } from "./cautions-panel";
-import { colourQuantities, formatNumber, segmentFields, type ColourKey } from "./fields";
+import { colourQuantities, formatNumber, segmentFields } from "./fields";
 import { FlagIcon } from "./flag-marker";
 import { FlagsList } from "./flags-list";
 import { PortSummary } from "./port-summary";
@@ -20,32 +20,34 @@ import { PressureProfileChart } from "./pressure-profile";
 import { RegimeChart } from "./regime-chart";
 import { SegmentTable } from "./segment-table";
 import { WhenVisible } from "./when-visible";
-import { asSeverity, DEFAULT_UNITS, SEVERITY_LABEL, SEVERITY_ORDER, type AnalysisWorkbenchProps, type FlowUnit, type PressureUnit, type Severity, type UnitPreferences } from "./types";
+import { DISPLAY_UNITS, resolveUnit, suggestScale, type QuantityKey, type UnitFamily, type UnitPreferences } from "@/lib/analysis/quantities";
+import { asSeverity, SEVERITY_LABEL, SEVERITY_ORDER, type AnalysisWorkbenchProps, type Severity } from "./types";
 
-const PRESSURE_UNITS: PressureUnit[] = ["mbar", "kPa", "psi"];
-const FLOW_UNITS: { value: FlowUnit; label: string }[] = [
-  { value: "uL/min", label: "µL/min" },
-  { value: "uL/h", label: "µL/h" },
-  { value: "nL/s", label: "nL/s" },
+/** The unit families offered in the toolbar (the others keep the member's stored choice or the default). */
+const UNIT_PICKERS: { family: UnitFamily; label: string }[] = [
+  { family: "pressure", label: "Pressure in" },
+  { family: "flow", label: "Flow in" },
+  { family: "length", label: "Sizes in" },
+  { family: "stress", label: "Shear in" },
 ];
 
 export function AnalysisWorkbench(props: AnalysisWorkbenchProps) {
   const { analysis, labels, compare, compareLinks, closeCompareHref, saveUnitsAction } = props;
   const tableId = useId().replace(/:/g, "") + "-segments";
-  const [units, setUnits] = useState<UnitPreferences>(props.units ?? DEFAULT_UNITS);
-  const [quantityKey, setQuantityKey] = useState<ColourKey>(analysis.totals ? "pressure" : "reynolds");
+  const [units, setUnits] = useState<UnitPreferences>(props.units ?? {});
+  const [quantityKey, setQuantityKey] = useState<QuantityKey>("pressure");
   const [scheme, setScheme] = useState<ColourScheme>("viridis");
   const [selectedId, setSelectedId] = useState<string | null>(null);
   const [showOverlay, setShowOverlay] = useState(true);
   const [, startSaving] = useTransition();
 
-  const fields = useMemo(() => segmentFields(units), [units]);
-  const quantities = useMemo(() => colourQuantities(units), [units]);
+  const fields = useMemo(() => segmentFields(analysis, units), [analysis, units]);
+  const quantities = useMemo(() => colourQuantities(analysis, units), [analysis, units]);
   const quantity = quantities.find((q) => q.key === quantityKey) ?? quantities[0];
-  const values = useMemo(() => quantity.values(analysis), [quantity, analysis]);
-  const scale = useMemo(() => createColourScale(values.values(), { scheme }), [values, scheme]);
+  const values = quantity.values;
+  const scale = useMemo(() => createColourScale(values.values(), { scheme, log: suggestScale(values.values()) === "log" }), [values, scheme]);
   const colourOf = useCallback((id: string) => scale.colour(values.get(id)), [scale, values]);
-  const colourKey = `${quantity.key}|${scheme}|${units.pressure}|${units.flow}`;
+  const colourKey = `${quantity.key}|${scheme}|${JSON.stringify(units)}`;
 
   const flagsBySegment = useMemo(() => {
     const m = new Map<string, Severity[]>();
@@ -63,8 +65,8 @@ export function AnalysisWorkbench(props: AnalysisWorkbenchProps) {
   const segById = useMemo(() => new Map(analysis.segments.map((s) => [s.id, s])), [analysis]);
 
   const field = (key: string) => fields.find((f) => f.key === key)!;
-  const pressureView = { unitLabel: field("pressure_drop_Pa").unitLabel, toDisplay: field("pressure_drop_Pa").toDisplay };
-  const flowView = { unitLabel: field("flow_m3_per_s").unitLabel, toDisplay: field("flow_m3_per_s").toDisplay };
+  const pressureView = { unitLabel: field("pressure_drop").unitLabel, toDisplay: field("pressure_drop").toDisplay };
+  const flowView = { unitLabel: field("flow").unitLabel, toDisplay: field("flow").toDisplay };
 
   const changeUnits = (next: UnitPreferences) => {
     setUnits(next);
@@ -73,7 +75,7 @@ export function AnalysisWorkbench(props: AnalysisWorkbenchProps) {
 
   const select = useCallback((id: string | null) => setSelectedId(id), []);
 
-  const summaryFields = ["width_m", "depth_m", "flow_m3_per_s", "pressure_drop_Pa", "reynolds", "capillary", "peclet", "wall_shear_Pa", "residence_s"];
+  const summaryFields = ["width", "depth", "flow", "pressure_drop", "reynolds", "capillary", "peclet", "wall_shear", "residence"];
   const describe = (id: string) => {
     const s = segById.get(id);
     if (!s) return null;
@@ -137,12 +139,18 @@ export function AnalysisWorkbench(props: AnalysisWorkbenchProps) {
       </header>
 
       <div role="toolbar" aria-label="Drawing and unit settings" className="flex flex-wrap items-end gap-3 rounded-md border border-ink-200 bg-white px-3 py-2 text-xs">
-        <Picker label="Colour by" value={quantityKey} onChange={(v) => setQuantityKey(v as ColourKey)} options={quantities.map((q) => ({ value: q.key, label: q.unitLabel ? `${q.label} (${q.unitLabel})` : q.label }))} />
+        <Picker label="Colour by" value={quantity.key} onChange={(v) => setQuantityKey(v as QuantityKey)} options={quantities.map((q) => ({ value: q.key, label: q.unitLabel ? `${q.label} (${q.unitLabel})` : q.label }))} />
         <Picker label="Colour scale" value={scheme} onChange={(v) => setScheme(v as ColourScheme)} options={[{ value: "viridis", label: "Viridis" }, { value: "cividis", label: "Cividis" }]} />
         <span className="mx-1 h-6 w-px bg-ink-200" aria-hidden="true" />
-        <Picker label="Pressure in" value={units.pressure} onChange={(v) => changeUnits({ ...units, pressure: v as PressureUnit })} options={PRESSURE_UNITS.map((u) => ({ value: u, label: u }))} />
-        <Picker label="Flow in" value={units.flow} onChange={(v) => changeUnits({ ...units, flow: v as FlowUnit })} options={FLOW_UNITS} />
-        <Picker label="Sizes in" value={units.length} onChange={(v) => changeUnits({ ...units, length: v as UnitPreferences["length"] })} options={[{ value: "um", label: "µm" }, { value: "mm", label: "mm" }]} />
+        {UNIT_PICKERS.map(({ family, label }) => (
+          <Picker
+            key={family}
+            label={label}
+            value={resolveUnit(family, units).id}
+            onChange={(v) => changeUnits({ ...units, [family]: v })}
+            options={DISPLAY_UNITS[family].map((u) => ({ value: u.id, label: u.label }))}
+          />
+        ))}
       </div>
 
       <div className="grid gap-4 lg:grid-cols-12">
@@ -190,8 +198,8 @@ export function AnalysisWorkbench(props: AnalysisWorkbenchProps) {
           comparison={comparison}
           labels={labels}
           otherLabels={compare.labels}
-          lengthField={field("length_m")}
-          widthField={field("width_m")}
+          lengthField={field("length")}
+          widthField={field("width")}
           pressure={pressureView}
           flow={flowView}
           showOverlay={showOverlay}

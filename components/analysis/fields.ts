@@ -1,13 +1,21 @@
 /**
- * What the analysis view shows for a segment: the table's columns and the
- * drawing's colour quantities, each with its display unit. Conversions go
- * through lib/units (mathjs) once per unit to get a factor, so a 10,000-row
- * table does not parse a unit per cell.
+ * What the analysis view shows for a segment: the table's columns (the
+ * quantity catalogue of lib/analysis/quantities.ts plus a few text columns)
+ * and the drawing's colour quantities, each in the user's display unit.
  */
-import { format as d3format } from "d3-format";
-import { convertFromSI, type Dimension } from "@/lib/units/quantity";
 import type { AnalyzeJson, AnalyzeSegmentJson } from "@/lib/analysis/serialize";
-import type { UnitPreferences } from "./types";
+import {
+  COLOUR_QUANTITIES,
+  createQuantityReader,
+  formatEngineering,
+  getQuantity,
+  quantityHeader,
+  resolveUnit,
+  toDisplayValue,
+  type QuantityDef,
+  type QuantityKey,
+  type UnitPreferences,
+} from "@/lib/analysis/quantities";
 
 export interface FieldView {
   key: string;
@@ -15,152 +23,109 @@ export interface FieldView {
   label: string;
   /** Short header, e.g. "Re". */
   short: string;
-  /** Display unit as shown ("µm", "mbar"); "" for a dimensionless group. */
+  /** Display unit as printed ("µm", "mbar"); "" for a dimensionless group or text. */
   unitLabel: string;
+  /** Full header with the unit, as the catalogue writes it ("Width (µm)"). */
+  header: string;
   kind: "number" | "text";
-  /** SI value (or text) for a segment. */
+  /** SI value (magnitude where the catalogue says so) or text. */
   value(seg: AnalyzeSegmentJson): number | string | null;
   /** SI value → display-unit number. */
   toDisplay(si: number): number;
-  /** Colour by the magnitude (flows and velocities carry a sign for direction). */
-  magnitude?: boolean;
+  /** The catalogue entry, for numbers. */
+  def?: QuantityDef;
 }
 
-const UNIT_LABEL: Record<string, string> = { um: "µm", "uL/min": "µL/min", "uL/h": "µL/h", "nL/s": "nL/s" };
-const shown = (u: string) => UNIT_LABEL[u] ?? u;
+/** Table column order: geometry first, then the operating point. A view choice; the catalogue holds the facts. */
+const TABLE_ORDER: QuantityKey[] = [
+  "length",
+  "width",
+  "end_width",
+  "depth",
+  "hydraulic_diameter",
+  "min_bend_radius",
+  "resistance",
+  "flow",
+  "mean_velocity",
+  "pressure",
+  "pressure_drop",
+  "reynolds",
+  "capillary",
+  "weber",
+  "peclet",
+  "dean",
+  "wall_shear",
+  "residence",
+  "diffusion_time",
+  "mixing_length",
+  "entrance_length",
+];
 
-const factorCache = new Map<string, number>();
-/** SI → display factor (all units here are proportional, none affine). */
-function factor(dimension: Dimension, unit: string): number {
-  const key = `${dimension}|${unit}`;
-  let f = factorCache.get(key);
-  if (f === undefined) {
-    f = convertFromSI(1, dimension, unit);
-    factorCache.set(key, f);
-  }
-  return f;
+function text(key: keyof AnalyzeSegmentJson, label: string): FieldView {
+  return { key, label, short: label, unitLabel: "", header: label, kind: "text", value: (s) => String(s[key] ?? ""), toDisplay: (x) => x };
 }
 
-function num(key: keyof AnalyzeSegmentJson) {
-  return (seg: AnalyzeSegmentJson) => {
-    const v = seg[key];
-    return typeof v === "number" && Number.isFinite(v) ? v : null;
+function quantityField(def: QuantityDef, read: ReturnType<typeof createQuantityReader>, prefs: UnitPreferences): FieldView {
+  const unitLabel = resolveUnit(def.family, prefs).label;
+  return {
+    key: def.key,
+    label: def.label,
+    short: def.symbol,
+    unitLabel,
+    header: quantityHeader(def, prefs),
+    kind: "number",
+    value: (s) => read(def.key, s),
+    toDisplay: (si) => toDisplayValue(def, si, prefs),
+    def,
   };
 }
 
-function field(
-  key: keyof AnalyzeSegmentJson,
-  label: string,
-  short: string,
-  dimension: Dimension | null,
-  unit: string,
-  extra: Partial<FieldView> = {},
-): FieldView {
-  const f = dimension ? factor(dimension, unit) : 1;
-  return { key, label, short, unitLabel: shown(unit), kind: "number", value: num(key), toDisplay: (si) => si * f, ...extra };
-}
-
-function text(key: keyof AnalyzeSegmentJson, label: string): FieldView {
-  return { key, label, short: label, unitLabel: "", kind: "text", value: (s) => String(s[key] ?? ""), toDisplay: (x) => x };
-}
-
-/** Every segment field, in table order, in the user's units. */
-export function segmentFields(units: UnitPreferences): FieldView[] {
-  const len = units.length;
+/** Every segment column, in table order, in the user's units. */
+export function segmentFields(analysis: AnalyzeJson, prefs: UnitPreferences): FieldView[] {
+  const read = createQuantityReader(analysis);
   return [
     text("id", "Segment"),
     text("layer", "Layer"),
-    text("from", "From"),
-    text("to", "To"),
-    field("length_m", "Length", "Length", "length", "mm"),
-    field("width_m", "Width", "Width", "length", len),
-    field("end_width_m", "End width", "End width", "length", len),
-    field("depth_m", "Depth", "Depth", "length", len),
+    text("from", "From node"),
+    text("to", "To node"),
     text("section", "Section"),
-    field("min_bend_radius_m", "Smallest bend radius", "Bend radius", "length", len),
-    field("hydraulic_diameter_m", "Hydraulic diameter", "Dₕ", "length", len),
-    { ...field("resistance_Pa_s_per_m3", "Hydraulic resistance", "Resistance", null, ""), unitLabel: `${shown(units.pressure)}/(${shown(units.flow)})`, toDisplay: (si) => (si * factor("pressure", units.pressure)) / factor("flow", units.flow) },
-    field("flow_m3_per_s", "Flow (from → to)", "Flow", "flow", units.flow, { magnitude: true }),
-    field("mean_velocity_m_per_s", "Mean velocity", "Velocity", "velocity", "mm/s", { magnitude: true }),
-    field("pressure_drop_Pa", "Pressure drop", "Δp", "pressure", units.pressure, { magnitude: true }),
-    field("reynolds", "Reynolds number", "Re", null, ""),
-    field("capillary", "Capillary number", "Ca", null, ""),
-    field("weber", "Weber number", "We", null, ""),
-    field("peclet", "Péclet number", "Pe", null, ""),
-    field("dean", "Dean number", "De", null, ""),
-    field("wall_shear_Pa", "Wall shear stress", "τw", "pressure", "Pa"),
-    field("residence_s", "Residence time", "Residence", "time", "s"),
-    field("diffusion_time_s", "Diffusion time across", "Diffusion", "time", "s"),
-    field("mixing_length_m", "Mixing length", "Mixing L", "length", "mm"),
-    field("entrance_length_m", "Entrance length", "Entrance L", "length", len),
+    ...TABLE_ORDER.map((k) => quantityField(getQuantity(k), read, prefs)),
   ];
 }
 
-/** Segment pressure for colouring: the mean of its end nodes' pressures, Pa. */
-export function segmentPressures(analysis: AnalyzeJson): Map<string, number> {
-  const p = new Map<string, number>();
-  for (const n of analysis.nodes) if (typeof n.pressure_Pa === "number") p.set(n.id, n.pressure_Pa);
-  const out = new Map<string, number>();
-  for (const s of analysis.segments) {
-    const a = p.get(s.from);
-    const b = p.get(s.to);
-    if (a !== undefined && b !== undefined) out.set(s.id, (a + b) / 2);
-  }
-  return out;
-}
-
-export type ColourKey = "pressure" | "flow" | "velocity" | "reynolds" | "capillary" | "peclet" | "wall_shear" | "residence";
-
 export interface ColourQuantity {
-  key: ColourKey;
+  key: QuantityKey;
   label: string;
   unitLabel: string;
   toDisplay(si: number): number;
-  /** SI value per segment id (missing when the analysis has no value). */
-  values(analysis: AnalyzeJson): Map<string, number>;
+  /** SI value per segment id (absent when the analysis has none). */
+  values: Map<string, number>;
 }
 
-/** The quantities the drawing can be coloured by, in the user's units. */
-export function colourQuantities(units: UnitPreferences): ColourQuantity[] {
-  const bySeg = (pick: (s: AnalyzeSegmentJson) => number | null | undefined, magnitude = false) => (a: AnalyzeJson) => {
-    const m = new Map<string, number>();
-    for (const s of a.segments) {
-      const v = pick(s);
-      if (typeof v === "number" && Number.isFinite(v)) m.set(s.id, magnitude ? Math.abs(v) : v);
+/** The quantities the drawing can be coloured by (the catalogue's colourable ones), with their values. */
+export function colourQuantities(analysis: AnalyzeJson, prefs: UnitPreferences): ColourQuantity[] {
+  const read = createQuantityReader(analysis);
+  return COLOUR_QUANTITIES.map((def) => {
+    const values = new Map<string, number>();
+    for (const s of analysis.segments) {
+      const v = read(def.key, s);
+      if (v !== null) values.set(s.id, v);
     }
-    return m;
-  };
-  const pf = factor("pressure", units.pressure);
-  const ff = factor("flow", units.flow);
-  const vf = factor("velocity", "mm/s");
-  return [
-    { key: "pressure", label: "Pressure", unitLabel: shown(units.pressure), toDisplay: (x) => x * pf, values: segmentPressures },
-    { key: "flow", label: "Flow (magnitude)", unitLabel: shown(units.flow), toDisplay: (x) => x * ff, values: bySeg((s) => s.flow_m3_per_s, true) },
-    { key: "velocity", label: "Mean velocity", unitLabel: "mm/s", toDisplay: (x) => x * vf, values: bySeg((s) => s.mean_velocity_m_per_s, true) },
-    { key: "reynolds", label: "Reynolds number Re", unitLabel: "", toDisplay: (x) => x, values: bySeg((s) => s.reynolds) },
-    { key: "capillary", label: "Capillary number Ca", unitLabel: "", toDisplay: (x) => x, values: bySeg((s) => s.capillary) },
-    { key: "peclet", label: "Péclet number Pe", unitLabel: "", toDisplay: (x) => x, values: bySeg((s) => s.peclet) },
-    { key: "wall_shear", label: "Wall shear stress", unitLabel: "Pa", toDisplay: (x) => x, values: bySeg((s) => s.wall_shear_Pa) },
-    { key: "residence", label: "Residence time", unitLabel: "s", toDisplay: (x) => x, values: bySeg((s) => s.residence_s) },
-  ];
-}
-
-const fixed = d3format(".3~r");
-const expo = d3format(".3~e");
-/** Three significant figures; exponent form outside 0.001…99,999. */
-export function formatNumber(x: number | null | undefined): string {
-  if (typeof x !== "number" || !Number.isFinite(x)) return "—";
-  if (x === 0) return "0";
-  const a = Math.abs(x);
-  if (a >= 1e-3 && a < 1e5) return fixed(x);
-  const [mant, exp] = expo(x).split("e");
-  return `${mant}×10${[...exp.replace("+", "")].map((c) => SUPERSCRIPT[c] ?? c).join("")}`;
+    return { key: def.key, label: `${def.label}${def.family === "none" ? ` ${def.symbol}` : ""}`, unitLabel: resolveUnit(def.family, prefs).label, toDisplay: (si: number) => toDisplayValue(def, si, prefs), values };
+  });
 }
 
 const SUPERSCRIPT: Record<string, string> = { "-": "⁻", "0": "⁰", "1": "¹", "2": "²", "3": "³", "4": "⁴", "5": "⁵", "6": "⁶", "7": "⁷", "8": "⁸", "9": "⁹" };
 
-/** Plain-text variant for CSV (a number a spreadsheet reads). */
-export function formatPlain(x: number | null | undefined): string {
-  if (typeof x !== "number" || !Number.isFinite(x)) return "";
-  return Number(x.toPrecision(6)).toString();
+/**
+ * A display-unit number at engineering precision (lib/analysis/quantities
+ * formatEngineering, the same digits the CSV carries), with the exponent set
+ * as "×10⁻⁶" for the screen; "—" when there is no value.
+ */
+export function formatNumber(x: number | null | undefined): string {
+  const s = formatEngineering(x);
+  if (s === "") return "—";
+  const m = /^(-?[\d.]+)e(-?\d+)$/.exec(s);
+  if (!m) return s;
+  return `${m[1]}×10${[...m[2]].map((c) => SUPERSCRIPT[c] ?? c).join("")}`;
 }

@@ -1,3 +1,2 @@
 export { AnalysisWorkbench } from "./analysis-workbench";
 export type { AnalysisWorkbenchProps, UnitPreferences, AnalysisLabels, PressureLimits, CompareTarget } from "./types";
-export { DEFAULT_UNITS } from "./types";

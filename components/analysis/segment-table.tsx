@@ -17,16 +17,17 @@ import {
   type SortingState,
   type VisibilityState,
 } from "@tanstack/react-table";
-import { csvFormatRows } from "d3-dsv";
+import { formatCsv } from "@/lib/analysis/csv";
+import { formatEngineering } from "@/lib/analysis/quantities";
 import type { AnalyzeSegmentJson } from "@/lib/analysis/serialize";
-import { formatNumber, formatPlain, type FieldView } from "./fields";
+import { formatNumber, type FieldView } from "./fields";
 import { FlagIcon } from "./flag-marker";
 import { SEVERITY_LABEL, SEVERITY_ORDER, type Severity } from "./types";
 
 const PAGE_SIZE = 100;
 
 /** Columns hidden until chosen: the secondary ones, to keep the first view readable. */
-const HIDDEN_BY_DEFAULT = ["end_width_m", "from", "to", "weber", "diffusion_time_s", "entrance_length_m", "min_bend_radius_m", "hydraulic_diameter_m"];
+const HIDDEN_BY_DEFAULT = ["end_width", "from", "to", "section", "weber", "diffusion_time", "entrance_length", "min_bend_radius", "hydraulic_diameter", "pressure"];
 
 export interface SegmentTableProps {
   id: string;
@@ -38,6 +39,7 @@ export interface SegmentTableProps {
   exportName: string;
 }
 
+/** Short on-screen header; the long one (the catalogue's) is its title and the CSV's header. */
 function header(f: FieldView): string {
   return f.unitLabel ? `${f.short} (${f.unitLabel})` : f.short;
 }
@@ -139,16 +141,16 @@ export function SegmentTable({ id, segments, fields, flagsBySegment, selectedId,
 
   const exportCsv = () => {
     const cols = table.getVisibleLeafColumns();
-    const head = cols.map((c) => (c.id === "flags" ? "Flags" : header((c.columnDef.meta as { field: FieldView }).field)));
+    const head = cols.map((c) => (c.id === "flags" ? "Flags" : (c.columnDef.meta as { field: FieldView }).field.header));
+    // The digits shown on screen (engineering precision), in the units shown, rows in the order shown.
     const rows = sortedRows.map((r) =>
       cols.map((c) => {
         if (c.id === "flags") return (flagsBySegment.get(r.original.id) ?? []).join(" ");
         const v = r.getValue(c.id) as number | string | null;
-        return typeof v === "number" ? formatPlain(v) : (v ?? "");
+        return typeof v === "number" ? formatEngineering(v) : v;
       }),
     );
-    // RFC 4180 quoting by d3-dsv; CRLF line ends as the RFC asks.
-    const text = csvFormatRows([head, ...rows]).replace(/\n/g, "\r\n") + "\r\n";
+    const text = formatCsv([head, ...rows]);
     const url = URL.createObjectURL(new Blob([text], { type: "text/csv;charset=utf-8" }));
     const a = document.createElement("a");
     a.href = url;
@@ -213,7 +215,7 @@ export function SegmentTable({ id, segments, fields, flagsBySegment, selectedId,
                   const sorted = h.column.getIsSorted();
                   return (
                     <th key={h.id} scope="col" aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"} className="whitespace-nowrap border-b border-ink-200 px-2 py-1.5 text-left font-semibold text-ink-800">
-                      <button type="button" onClick={h.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 rounded hover:text-stream-700 focus-visible:outline-2 focus-visible:outline-stream-600">
+                      <button type="button" title={(h.column.columnDef.meta as { field?: FieldView } | undefined)?.field?.header} onClick={h.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 rounded hover:text-stream-700 focus-visible:outline-2 focus-visible:outline-stream-600">
                         {flexRender(h.column.columnDef.header, h.getContext())}
                         <span aria-hidden="true" className="text-ink-400">{sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : "↕"}</span>
                       </button>

@@ -5,19 +5,10 @@
  * a server component cannot hand functions to the client.
  */
 import type { AnalyzeJson } from "@/lib/analysis/serialize";
+import type { UnitPreferences } from "@/lib/analysis/quantities";
 
-export type PressureUnit = "mbar" | "kPa" | "psi";
-export type FlowUnit = "uL/min" | "nL/s" | "uL/h";
-export type LengthUnit = "um" | "mm";
-
-/** Per-user display units; values stay SI everywhere else. */
-export interface UnitPreferences {
-  pressure: PressureUnit;
-  flow: FlowUnit;
-  length: LengthUnit;
-}
-
-export const DEFAULT_UNITS: UnitPreferences = { pressure: "mbar", flow: "uL/min", length: "um" };
+/** Per-user display units (lib/analysis/quantities.ts: unitPreferencesSchema); values stay SI everywhere else. */
+export type { UnitPreferences };
 
 /** Labels of what is being shown, already resolved by the page. */
 export interface AnalysisLabels {
@@ -45,6 +36,7 @@ export interface CompareTarget {
 export interface AnalysisWorkbenchProps {
   analysis: AnalyzeJson;
   labels: AnalysisLabels;
+  /** The member's stored unit choices; missing families take the catalogue's defaults. */
   units?: UnitPreferences;
   limits?: PressureLimits;
   /** The other side of a comparison, when the page was opened with one (e.g. ?compare=3). */
