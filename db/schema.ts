@@ -160,3 +160,6 @@ export type SignInAttemptRow = typeof signInAttempts.$inferSelect;
 
 // Chips, revisions, analyses and workspace settings (issue: chips and revisions).
 export * from "./schema-chips";
+
+// Review and sign-off: dispositions, comments, clearances, notifications (issue 7).
+export * from "./schema-review";
