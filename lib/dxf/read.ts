@@ -26,6 +26,8 @@ export interface ReadDxfOptions {
   chordToleranceM: number;
   /** Drawing unit from the conditions; overrides $INSUNITS. */
   units?: DrawingUnit;
+  /** Called as each stage ends (benchmark breakdown only). */
+  onStage?: (stage: string) => void;
 }
 
 /** 2-D affine map: x' = a·x + b·y + e, y' = c·x + d·y + f. */
@@ -448,7 +450,9 @@ function checkFinite(entities: DrawingEntity[]) {
  */
 export function readDxf(input: string | Uint8Array, options: ReadDxfOptions): DxfDrawing {
   const text = decodeLayout(input, options.maxBytes);
+  options.onStage?.("checks and decoding");
   const dxf = parseText(text);
+  options.onStage?.("dxf-parser parse");
   const rawIns = dxf.header?.["$INSUNITS"];
   const insUnits = typeof rawIns === "number" && Number.isFinite(rawIns) ? rawIns : null;
   const fromFile = insUnits === null ? undefined : INSUNITS_TO_UNIT[insUnits];
@@ -468,6 +472,7 @@ export function readDxf(input: string | Uint8Array, options: ReadDxfOptions): Dx
   const top = dxf.entities && dxf.entities.length > 0 ? dxf.entities : (modelBlock?.entities ?? []);
   walk(ctx, top, IDENTITY, null, 0, []);
   checkFinite(ctx.out);
+  options.onStage?.("entities, blocks, curves");
   return {
     insUnits,
     units,

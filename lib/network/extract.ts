@@ -25,10 +25,14 @@ const MAX_LISTED_WARNINGS = 25;
 
 export interface ExtractOptions {
   maxBytes?: number;
+  /** Called as each stage ends (for the benchmark's breakdown); no effect on the result. */
+  onStage?: (stage: string) => void;
 }
 
 interface Work {
   p: Piece;
+  /** Bounds [minX, minY, maxX, maxY], drawing units. */
+  box: [number, number, number, number];
   len: number;
   layer: ResolvedLayer;
   src: number;
@@ -126,38 +130,42 @@ function nameports(circles: CircleEntity[], texts: TextEntity[], warnings: Layou
   return circles.map((c, i) => ({ cx: c.cx, cy: c.cy, r: c.r, name: names[i] as string }));
 }
 
+const scratch: number[] = [];
+
 /** Cut away the parts of a piece inside any port circle. */
-function trimByPorts(w: Work, ports: PortCircle[], grid: SpatialGrid | null): Work[] {
-  if (!grid) return [w];
-  const [minX, minY, maxX, maxY] = bboxOf(w.p);
-  const hit = new Set<number>();
-  grid.query(minX, minY, maxX, maxY, (id) => hit.add(id));
-  if (hit.size === 0) return [w];
+function trimByPorts(w: Work, ports: PortCircle[], grid: SpatialGrid | null): Work[] | null {
+  if (!grid) return null;
+  const [minX, minY, maxX, maxY] = w.box;
+  const hits = grid.queryInto(minX, minY, maxX, maxY, scratch);
+  if (hits.length === 0) return null;
   let parts: Work[] = [w];
-  for (const pi of hit) {
+  let changedAny = false;
+  for (const pi of new Set(hits)) {
     const c = ports[pi];
     const next: Work[] = [];
     for (const part of parts) {
       const cuts = circleCrossings(part.p, c.cx, c.cy, c.r);
       const ts = [0, ...cuts, 1];
-      let changed = false;
-      const kept: Work[] = [];
       for (let k = 0; k + 1 < ts.length; k++) {
         const ta = ts[k];
         const tb = ts[k + 1];
         if (tb - ta <= 1e-12) continue;
         const m = pointAt(part.p, (ta + tb) / 2);
         if (Math.hypot(m.x - c.cx, m.y - c.cy) < c.r) {
-          changed = true;
+          changedAny = true;
           continue;
         }
-        kept.push(ta === 0 && tb === 1 ? part : { ...part, p: subPiece(part.p, ta, tb), len: part.len * (tb - ta) });
+        if (ta === 0 && tb === 1) next.push(part);
+        else {
+          changedAny = true;
+          const p = subPiece(part.p, ta, tb);
+          next.push({ ...part, p, box: bboxOf(p), len: part.len * (tb - ta) });
+        }
       }
-      next.push(...(changed || kept.length !== 1 ? kept : [part]));
     }
     parts = next;
   }
-  return parts;
+  return changedAny ? parts : null;
 }
 
 function chooseCellSize(works: Work[], snap: number): number {
@@ -165,40 +173,87 @@ function chooseCellSize(works: Work[], snap: number): number {
   let sum = 0;
   let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
   for (const w of works) {
-    const b = bboxOf(w.p);
+    const b = w.box;
     sum += Math.max(b[2] - b[0], b[3] - b[1]);
     minX = Math.min(minX, b[0]); minY = Math.min(minY, b[1]); maxX = Math.max(maxX, b[2]); maxY = Math.max(maxY, b[3]);
   }
   const extent = Math.max(maxX - minX, maxY - minY, snap * 4, 1e-300);
-  return Math.max(sum / works.length, extent / 2048, snap * 4, extent * 1e-9);
+  // Twice the mean piece size: most pieces then touch one to four cells.
+  return Math.max((2 * sum) / works.length, extent / 2048, snap * 4, extent * 1e-9);
 }
 
-/** Split parameters for every piece: T-junctions and crossings. */
-function findSplits(works: Work[], grid: SpatialGrid, snap: number): number[][] {
-  const splits: number[][] = works.map(() => []);
-  const stamp = new Int32Array(works.length).fill(-1);
+/** Split parameters for every piece: T-junctions and crossings. Lines (the common case) are handled inline, without allocation. */
+function findSplits(works: Work[], grid: SpatialGrid, snap: number): (number[] | null)[] {
+  const n = works.length;
+  const splits: (number[] | null)[] = new Array(n).fill(null);
+  const add = (i: number, t: number) => {
+    const list = splits[i];
+    if (list) list.push(t);
+    else splits[i] = [t];
+  };
+  const stamp = new Int32Array(n).fill(-1);
   const interior = (i: number, t: number) => t * works[i].len > snap && (1 - t) * works[i].len > snap;
-  const boxes = works.map((w) => bboxOf(w.p));
-  for (let i = 0; i < works.length; i++) {
-    const bi = boxes[i];
-    const pi = works[i].p;
-    grid.query(bi[0] - snap, bi[1] - snap, bi[2] + snap, bi[3] + snap, (j) => {
-      if (j <= i || stamp[j] === i) return;
+  const cand: number[] = [];
+  // Endpoint of one piece on the interior of another (T-junction): split the other there.
+  const endOnto = (x: number, y: number, j: number) => {
+    const q = works[j].p;
+    if (q.kind === "line") {
+      const dx = q.x1 - q.x0;
+      const dy = q.y1 - q.y0;
+      const l2 = dx * dx + dy * dy;
+      if (l2 === 0) return;
+      const t = ((x - q.x0) * dx + (y - q.y0) * dy) / l2;
+      if (t <= 0 || t >= 1) return;
+      if (Math.hypot(x - (q.x0 + dx * t), y - (q.y0 + dy * t)) <= snap && interior(j, t)) add(j, t);
+      return;
+    }
+    const pr = project(q, x, y);
+    if (pr.dist <= snap && interior(j, pr.t)) add(j, pr.t);
+  };
+  for (let i = 0; i < n; i++) {
+    const wi = works[i];
+    const bi = wi.box;
+    const pi = wi.p;
+    grid.queryInto(bi[0] - snap, bi[1] - snap, bi[2] + snap, bi[3] + snap, cand);
+    for (let c = 0; c < cand.length; c++) {
+      const j = cand[c];
+      if (j <= i || stamp[j] === i) continue;
       stamp[j] = i;
-      const bj = boxes[j];
-      if (bj[0] > bi[2] + snap || bj[2] < bi[0] - snap || bj[1] > bi[3] + snap || bj[3] < bi[1] - snap) return;
+      const bj = works[j].box;
+      if (bj[0] > bi[2] + snap || bj[2] < bi[0] - snap || bj[1] > bi[3] + snap || bj[3] < bi[1] - snap) continue;
       const pj = works[j].p;
-      for (const h of intersect(pi, pj)) {
-        if (interior(i, h.t)) splits[i].push(h.t);
-        if (interior(j, h.u)) splits[j].push(h.u);
-      }
-      for (const [a, b, ia] of [[pi, pj, j], [pj, pi, i]] as const) {
-        for (const e of [startOf(a), endOf(a)]) {
-          const pr = project(b, e.x, e.y);
-          if (pr.dist <= snap && interior(ia, pr.t)) splits[ia].push(pr.t);
+      if (pi.kind === "line" && pj.kind === "line") {
+        const rx = pi.x1 - pi.x0;
+        const ry = pi.y1 - pi.y0;
+        const sx = pj.x1 - pj.x0;
+        const sy = pj.y1 - pj.y0;
+        const den = rx * sy - ry * sx;
+        if (Math.abs(den) > 1e-14 * Math.hypot(rx, ry) * Math.hypot(sx, sy)) {
+          const qpx = pj.x0 - pi.x0;
+          const qpy = pj.y0 - pi.y0;
+          const t = (qpx * sy - qpy * sx) / den;
+          const u = (qpx * ry - qpy * rx) / den;
+          if (t >= 0 && t <= 1 && u >= 0 && u <= 1) {
+            if (interior(i, t)) add(i, t);
+            if (interior(j, u)) add(j, u);
+          }
         }
+        endOnto(pi.x0, pi.y0, j);
+        endOnto(pi.x1, pi.y1, j);
+        endOnto(pj.x0, pj.y0, i);
+        endOnto(pj.x1, pj.y1, i);
+        continue;
       }
-    });
+      for (const h of intersect(pi, pj)) {
+        if (interior(i, h.t)) add(i, h.t);
+        if (interior(j, h.u)) add(j, h.u);
+      }
+      const a0 = startOf(pi), a1 = endOf(pi), b0 = startOf(pj), b1 = endOf(pj);
+      endOnto(a0.x, a0.y, j);
+      endOnto(a1.x, a1.y, j);
+      endOnto(b0.x, b0.y, i);
+      endOnto(b1.x, b1.y, i);
+    }
   }
   return splits;
 }
@@ -274,13 +329,13 @@ export function extractNetwork(input: string | Uint8Array, conditions: GeometryC
   const chordM = conditions.chord_tolerance === undefined ? DEFAULT_CHORD_TOLERANCE_M : parseQuantity(conditions.chord_tolerance, "length", "chord_tolerance");
   if (snapM < 0) throw layoutError("invalid_snap", "snap must not be negative.");
   if (!(chordM > 0)) throw layoutError("invalid_chord_tolerance", "chord_tolerance must be greater than zero.");
-  const drawing = readDxf(input, { maxBytes: options.maxBytes ?? MAX_LAYOUT_BYTES, chordToleranceM: chordM, units: conditions.units });
+  const drawing = readDxf(input, { maxBytes: options.maxBytes ?? MAX_LAYOUT_BYTES, chordToleranceM: chordM, units: conditions.units, onStage: options.onStage });
   const plan = planLayers(drawing, conditions);
   if (!drawing.units) throw layoutError("units_unknown", drawing.unitsProblem ?? "The drawing's units are not known.", plan);
-  return buildNetwork(drawing, plan, snapM, drawing.units.metresPerUnit);
+  return buildNetwork(drawing, plan, snapM, drawing.units.metresPerUnit, options.onStage ?? (() => undefined));
 }
 
-function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: number): ChannelNetwork {
+function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: number, stage: (name: string) => void): ChannelNetwork {
   const units = drawing.units!;
   const snap = snapM / mpu;
   const warnings: LayoutWarning[] = drawing.notes.map((n) => ({ code: n.code, message: n.message }));
@@ -313,7 +368,8 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       return;
     }
     const role = roleOf(e.layer);
-    if (role === "channel" || role === "port" || role === "outline") {
+    if ((role === "port" || role === "outline") && e.kind === "circle") grow([e.cx - e.r, e.cy - e.r, e.cx + e.r, e.cy + e.r]);
+    else if (role === "port" || role === "outline" || (role === "channel" && e.kind === "circle")) {
       if (e.kind === "circle") grow([e.cx - e.r, e.cy - e.r, e.cx + e.r, e.cy + e.r]);
       else for (const p of e.pieces) grow(bboxOf(p));
     }
@@ -325,6 +381,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       const layer = plan.byName.get(e.layer)!;
       const drawnWidth = e.kind === "path" && e.pieces.some((p) => p.w0 !== null);
       if (e.kind === "circle" || (e.closed && !drawnWidth)) {
+        if (e.kind === "path") for (const p of e.pieces) grow(bboxOf(p));
         // Closed shapes on a channel layer are mask outlines (chambers, filled channels), kept for an outline reader.
         shapesByLayer.set(e.layer, (shapesByLayer.get(e.layer) ?? 0) + 1);
         return;
@@ -332,7 +389,10 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       linesByLayer.set(e.layer, (linesByLayer.get(e.layer) ?? 0) + 1);
       for (const p of e.pieces) {
         const len = pieceLength(p);
-        if (len > 0) works.push({ p, len, layer, src, curveR: e.minCurveRadius });
+        if (!(len > 0)) continue;
+        const box = bboxOf(p);
+        grow(box);
+        works.push({ p, box, len, layer, src, curveR: e.minCurveRadius });
       }
     }
   });
@@ -362,6 +422,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     throw e instanceof LayoutError ? layoutError(e.code, e.message, plan) : e;
   }
 
+  stage("sort by role");
   // Ports and trimming.
   const ports = nameports(portCircles, texts, warnings, mpu);
   let portGrid: SpatialGrid | null = null;
@@ -371,19 +432,22 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     ports.forEach((p, i) => portGrid!.insert(i, p.cx - p.r - snap, p.cy - p.r - snap, p.cx + p.r + snap, p.cy + p.r + snap));
   }
   const trimmed: Work[] = [];
-  for (const w of works) for (const t of trimByPorts(w, ports, portGrid)) trimmed.push(t);
+  for (const w of works) {
+    const parts = trimByPorts(w, ports, portGrid);
+    if (parts === null) trimmed.push(w);
+    else for (const t of parts) trimmed.push(t);
+  }
 
+  stage("ports and trimming");
   // T-junctions and crossings.
   const grid = new SpatialGrid(chooseCellSize(trimmed, snap));
-  trimmed.forEach((w, i) => {
-    const b = bboxOf(w.p);
-    grid.insert(i, b[0], b[1], b[2], b[3]);
-  });
+  trimmed.forEach((w, i) => grid.insert(i, w.box[0], w.box[1], w.box[2], w.box[3]));
   const splits = findSplits(trimmed, grid, snap);
+  stage("crossings and T-junctions");
   const pieces: Work[] = [];
   trimmed.forEach((w, i) => {
     const ts = splits[i];
-    if (ts.length === 0) {
+    if (ts === null) {
       pieces.push(w);
       return;
     }
@@ -392,11 +456,13 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     for (const t of [...ts, 1]) {
       if ((t - prev) * w.len <= snap && t !== 1) continue;
       if (t - prev <= 0) continue;
-      pieces.push({ ...w, p: subPiece(w.p, prev, t), len: w.len * (t - prev) });
+      const p = subPiece(w.p, prev, t);
+      pieces.push({ ...w, p, box: w.box, len: w.len * (t - prev) });
       prev = t;
     }
   });
 
+  stage("split pieces");
   // Endpoints → nodes (snap merge; ends near a port circle join the port).
   const nEnds = pieces.length * 2;
   const uf = new UnionFind(nEnds + ports.length);
@@ -408,22 +474,26 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     endX[2 * i] = s.x; endY[2 * i] = s.y;
     endX[2 * i + 1] = e.x; endY[2 * i + 1] = e.y;
   });
-  const cell = Math.max(snap, 1e-300);
-  const buckets = new Map<string, number[]>();
-  for (let k = 0; k < nEnds; k++) {
-    const ix = Math.floor(endX[k] / cell);
-    const iy = Math.floor(endY[k] / cell);
-    for (let dx = -1; dx <= 1; dx++) {
-      for (let dy = -1; dy <= 1; dy++) {
-        const list = buckets.get(`${ix + dx},${iy + dy}`);
-        if (!list) continue;
-        for (const o of list) if (Math.hypot(endX[o] - endX[k], endY[o] - endY[k]) <= snap) uf.union(o, k);
+  // Endpoints hashed into snap-sized cells (a chained hash: head per cell, next per end); each end looks in its 3 × 3 cells.
+  {
+    const inv = 1 / Math.max(snap, 1e-300);
+    const head = new Map<number, number>();
+    const next = new Int32Array(nEnds).fill(-1);
+    const cellKey = (ix: number, iy: number) => (Math.max(-33554432, Math.min(33554431, ix)) + 33554432) * 67108864 + Math.max(-33554432, Math.min(33554431, iy)) + 33554432;
+    for (let k = 0; k < nEnds; k++) {
+      const ix = Math.floor(endX[k] * inv);
+      const iy = Math.floor(endY[k] * inv);
+      for (let dx = -1; dx <= 1; dx++) {
+        for (let dy = -1; dy <= 1; dy++) {
+          for (let o = head.get(cellKey(ix + dx, iy + dy)) ?? -1; o !== -1; o = next[o]) {
+            if (Math.hypot(endX[o] - endX[k], endY[o] - endY[k]) <= snap) uf.union(o, k);
+          }
+        }
       }
+      const key = cellKey(ix, iy);
+      next[k] = head.get(key) ?? -1;
+      head.set(key, k);
     }
-    const key = `${ix},${iy}`;
-    const list = buckets.get(key);
-    if (list) list.push(k);
-    else buckets.set(key, [k]);
   }
   if (portGrid) {
     for (let k = 0; k < nEnds; k++) {
@@ -442,9 +512,11 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     } else portOfRoot.set(root, pi);
   });
 
+  stage("snap endpoints");
   // Duplicates and zero-length pieces.
   const keep: boolean[] = new Array(pieces.length).fill(true);
-  const byPair = new Map<string, number[]>();
+  const byPair = new Map<number, number[]>();
+  const stride = nEnds + ports.length;
   const dupPairs = new Map<string, { x: number; y: number; count: number; types: string }>();
   pieces.forEach((w, i) => {
     const a = uf.find(2 * i);
@@ -453,7 +525,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       keep[i] = false;
       return;
     }
-    const key = a < b ? `${a}:${b}` : `${b}:${a}`;
+    const key = a < b ? a * stride + b : b * stride + a;
     const list = byPair.get(key);
     if (!list) {
       byPair.set(key, [i]);
@@ -478,6 +550,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   }
   if (dupPairs.size > MAX_LISTED_WARNINGS) warnings.push({ code: "duplicate_merged", message: `${dupPairs.size - MAX_LISTED_WARNINGS} more duplicated channels were counted once.` });
 
+  stage("duplicates");
   // Graph: incident piece ends per node root.
   const incident = new Map<number, number[]>();
   pieces.forEach((_, i) => {
@@ -543,6 +616,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     }
   }
 
+  stage("graph and components");
   // Node kinds.
   const widthCache = pieces.map((w) => widthsOf(w, mpu));
   const endWidth = (k: number) => widthCache[k >> 1][k & 1];
@@ -565,6 +639,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     nodeKind.set(root, kind);
   }
 
+  stage("node kinds");
   // Walk segments between stop nodes.
   const nodeId = new Map<number, string>();
   const nodes: NetworkNode[] = [];
@@ -609,6 +684,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       segments.push(makeSegment(`s${segments.length + 1}`, nodeOf(start), nodeOf(endRoot), chain, mpu, widthsOf));
     }
   }
+  stage("segments");
   // Keep node numbering stable: ports first as walked, then the rest in walk order.
   const networkPorts: NetworkPort[] = [];
   for (const [root, pi] of portOfRoot) {
@@ -624,6 +700,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     ? { minXM: minX * mpu, minYM: minY * mpu, maxXM: maxX * mpu, maxYM: maxY * mpu }
     : { minXM: 0, minYM: 0, maxXM: 0, maxYM: 0 };
 
+  stage("ports, outline, bounds");
   return {
     units,
     nodes,
@@ -647,39 +724,51 @@ function makeSegment(
 ): NetworkSegment {
   const layer = chain[0].w.layer;
   const path: [number, number][] = [];
-  const profile: WidthSample[] = [];
+  let profile: WidthSample[] | null = null;
   let s = 0;
   let minR: number | null = null;
   let area = 0;
+  let first = NaN;
+  let lastW = NaN;
+  let minW = Infinity;
+  let maxW = -Infinity;
   for (const { w, fwd } of chain) {
-    const p = fwd ? w.p : reversed(w.p);
+    const p = w.p;
     const [a, b] = widths(w, mpu);
     const w0 = fwd ? a : b;
     const w1 = fwd ? b : a;
     if (path.length === 0) {
-      const st = startOf(p);
+      const st = pointAt(p, fwd ? 0 : 1);
       path.push([st.x * mpu, st.y * mpu]);
+      first = w0;
     }
-    for (const pt of samplePoints(p)) path.push([pt.x * mpu, pt.y * mpu]);
-    const last = profile.at(-1);
-    if (!last || Math.abs(last.widthM - w0) > 1e-9 * w0 || last.sM !== s * mpu) profile.push({ sM: s * mpu, widthM: w0 });
+    if (p.kind === "line") path.push(fwd ? [p.x1 * mpu, p.y1 * mpu] : [p.x0 * mpu, p.y0 * mpu]);
+    else {
+      // Arcs drawn every ≤ 5°, at least two steps.
+      const n = Math.max(2, Math.ceil(Math.abs(p.sweep) / (Math.PI / 36)));
+      for (let k = 1; k <= n; k++) {
+        const q = pointAt(p, fwd ? k / n : 1 - k / n);
+        path.push([q.x * mpu, q.y * mpu]);
+      }
+    }
+    // A width profile only when widths vary along the segment.
+    if (profile === null && (w0 !== first || w1 !== first)) profile = s === 0 ? [] : [{ sM: 0, widthM: first }, { sM: s * mpu, widthM: first }];
+    if (profile !== null) {
+      const last = profile.at(-1);
+      if (!last || last.sM !== s * mpu || last.widthM !== w0) profile.push({ sM: s * mpu, widthM: w0 });
+    }
     s += w.len;
-    profile.push({ sM: s * mpu, widthM: w1 });
+    if (profile !== null) profile.push({ sM: s * mpu, widthM: w1 });
     area += ((w0 + w1) / 2) * w.len;
+    lastW = w1;
+    minW = Math.min(minW, w0, w1);
+    maxW = Math.max(maxW, w0, w1);
     const r = p.kind === "arc" ? p.r : w.curveR;
     if (r !== null) minR = minR === null ? r : Math.min(minR, r);
   }
   const lengthM = s * mpu;
-  const first = profile[0].widthM;
-  const lastW = profile[profile.length - 1].widthM;
-  let minW = Infinity;
-  let maxW = -Infinity;
-  for (const q of profile) {
-    minW = Math.min(minW, q.widthM);
-    maxW = Math.max(maxW, q.widthM);
-  }
   // A single linear taper is described by its end widths; anything else carries its profile (and the mean width).
-  const linear = profile.every((q) => Math.abs(first + ((lastW - first) * q.sM) / (lengthM || 1) - q.widthM) <= 1e-9 * maxW);
+  const linear = profile === null || profile.every((q) => Math.abs(first + ((lastW - first) * q.sM) / (lengthM || 1) - q.widthM) <= 1e-9 * maxW);
   const seg: NetworkSegment = {
     id,
     layer: layer.name,
@@ -697,7 +786,7 @@ function makeSegment(
     seg.minWidthM = minW;
     seg.maxWidthM = maxW;
   }
-  if (!linear) seg.widthProfile = dedupeProfile(profile);
+  if (!linear && profile !== null) seg.widthProfile = dedupeProfile(profile);
   return seg;
 }
 

@@ -48,4 +48,20 @@ export class SpatialGrid {
       }
     }
   }
+
+  /** Collect into `out` (cleared first) the ids whose cells meet the box; ids may repeat. Allocation-free for hot loops. */
+  queryInto(minX: number, minY: number, maxX: number, maxY: number, out: number[]): number[] {
+    out.length = 0;
+    const x0 = Math.floor(minX * this.inv);
+    const x1 = Math.floor(maxX * this.inv);
+    const y0 = Math.floor(minY * this.inv);
+    const y1 = Math.floor(maxY * this.inv);
+    for (let ix = x0; ix <= x1; ix++) {
+      for (let iy = y0; iy <= y1; iy++) {
+        const list = this.cells.get(this.key(ix, iy));
+        if (list) for (let i = 0; i < list.length; i++) out.push(list[i]);
+      }
+    }
+    return out;
+  }
 }

@@ -1,0 +1,83 @@
+/**
+ * Layout reader speed and memory: a synthetic chip of more than 20,000 channel
+ * entities (a grid network of LINEs with bulged LWPOLYLINE rungs, ports at the
+ * corners), generated here as DXF text. Times the whole geometry path
+ * (extractNetwork: parse + blocks + topology + segments) against the bare
+ * dxf-parser parse of the same text, and the heap the result holds against the
+ * file size. Targets (issue 3): ratio ≤ 1.5×, heap < 10× the file.
+ */
+import DxfParser from "dxf-parser";
+import { extractNetwork } from "../lib/network/extract";
+
+const PITCH_UM = 400;
+
+/** DXF text of an n × n grid network: 2·n·(n−1) channel entities plus four port circles. */
+export function syntheticGridDxf(n: number): { text: string; entities: number } {
+  const out: string[] = ["0", "SECTION", "2", "HEADER", "9", "$INSUNITS", "70", "13", "0", "ENDSEC", "0", "SECTION", "2", "ENTITIES"];
+  let entities = 0;
+  const line = (x0: number, y0: number, x1: number, y1: number) => {
+    out.push("0", "LINE", "8", "FLOW", "10", String(x0), "20", String(y0), "30", "0", "11", String(x1), "21", String(y1), "31", "0");
+    entities++;
+  };
+  const bulged = (x0: number, y0: number, x1: number, y1: number) => {
+    out.push("0", "LWPOLYLINE", "8", "FLOW", "90", "2", "70", "0", "10", String(x0), "20", String(y0), "42", "0.15", "10", String(x1), "20", String(y1));
+    entities++;
+  };
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j + 1 < n; j++) {
+      line(j * PITCH_UM, i * PITCH_UM, (j + 1) * PITCH_UM, i * PITCH_UM);
+      if ((i + j) % 4 === 0) bulged(i * PITCH_UM, j * PITCH_UM, i * PITCH_UM, (j + 1) * PITCH_UM);
+      else line(i * PITCH_UM, j * PITCH_UM, i * PITCH_UM, (j + 1) * PITCH_UM);
+    }
+  }
+  const far = (n - 1) * PITCH_UM;
+  for (const [x, y] of [[0, 0], [far, 0], [0, far], [far, far]]) out.push("0", "CIRCLE", "8", "PORTS", "10", String(x), "20", String(y), "30", "0", "40", "150");
+  out.push("0", "ENDSEC", "0", "EOF");
+  return { text: out.join("\n") + "\n", entities };
+}
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)];
+}
+
+function time(fn: () => unknown, runs: number): number {
+  const t: number[] = [];
+  for (let k = 0; k < runs; k++) {
+    const t0 = performance.now();
+    fn();
+    t.push(performance.now() - t0);
+  }
+  return median(t);
+}
+
+const gc = (globalThis as { gc?: () => void }).gc;
+
+export async function run(): Promise<void> {
+  const { text, entities } = syntheticGridDxf(102);
+  const conditions = { layers: { FLOW: { role: "channel" as const, width: "100 um", depth: "50 um" }, PORTS: { role: "port" as const } } };
+  const bytes = new TextEncoder().encode(text);
+  const fileMiB = bytes.byteLength / 1048576;
+
+  // Warm up both paths (JIT), then take medians.
+  new DxfParser().parseSync(text);
+  const net = extractNetwork(bytes, conditions);
+  const parseMs = time(() => new DxfParser().parseSync(text), 5);
+  const extractMs = time(() => extractNetwork(bytes, conditions), 5);
+
+  gc?.();
+  const before = process.memoryUsage().heapUsed;
+  const kept = extractNetwork(bytes, conditions);
+  const after = process.memoryUsage().heapUsed;
+  const heapMiB = (after - before) / 1048576;
+
+  console.log(`synthetic grid: ${entities.toLocaleString("en")} channel entities, ${fileMiB.toFixed(2)} MiB of DXF text`);
+  console.log(`network: ${net.segments.length.toLocaleString("en")} segments, ${net.nodes.length.toLocaleString("en")} nodes, ${net.ports.length} ports`);
+  console.log(`bare dxf-parser parse : ${parseMs.toFixed(0)} ms (median of 5)`);
+  console.log(`whole extract path    : ${extractMs.toFixed(0)} ms (median of 5)`);
+  console.log(`ratio extract / parse : ${(extractMs / parseMs).toFixed(2)}× (target ≤ 1.5×)`);
+  console.log(
+    `heap held by one extract: ${heapMiB.toFixed(1)} MiB = ${(heapMiB / fileMiB).toFixed(1)}× the file (target < 10×)${gc ? "" : " — without --expose-gc the figure includes garbage not yet collected"}`,
+  );
+  if (kept.segments.length !== net.segments.length) console.log("warning: runs disagree");
+}
