@@ -16,7 +16,8 @@ import { ConflictError, DomainError, NotFoundError } from "@/lib/errors";
 import { surveyLayout, type LayoutSurvey } from "@/lib/network/survey";
 import { assertEditable, type ReviewStatus } from "@/lib/review/machine";
 import { deleteFile, getFile, putFile, sha256Hex } from "@/lib/storage/files";
-import { toConditions, type WorkspaceFluidChoice } from "./conditions";
+import { toConditions, type WorkspaceFluidChoice, type WorkspaceOverrides } from "./conditions";
+import { listProcessOverrides, listThresholdOverrides } from "./settings";
 import type { ChipCreateInput, LayerMapInput, OperatingPointForm } from "./schemas";
 
 /** Bumped when the engine's output changes meaning, so stored analyses can be told apart. */
@@ -174,8 +175,18 @@ export function summarise(result: AnalyzeJson) {
   };
 }
 
+/** The workspace's threshold and process-limit overrides, in the shape toConditions takes. */
+export async function loadWorkspaceOverrides(ctx: MemberContext): Promise<WorkspaceOverrides> {
+  const [thresholds, processes] = await Promise.all([listThresholdOverrides(ctx.scope), listProcessOverrides(ctx.scope)]);
+  return {
+    thresholds: Object.fromEntries(Object.entries(thresholds).map(([code, o]) => [code, o.value])),
+    processes: Object.fromEntries(Object.entries(processes).map(([key, o]) => [key, o.values])),
+  };
+}
+
 /**
- * Creates an operating point on a revision and analyses it. The operating point
+ * Creates an operating point on a revision and analyses it, with the
+ * workspace's threshold and process-limit overrides in its conditions. The operating point
  * is kept even when the analysis fails; the failure is stored in plain words.
  * @throws ConflictError when the revision is cleared (frozen) or not mapped yet.
  */
@@ -190,7 +201,7 @@ export async function createOperatingPoint(
   assertEditable({ status: revision.reviewState as ReviewStatus });
   const mapping = await q.getLayerMap(ctx.scope, revision.id);
   if (!mapping) throw new ConflictError("not_mapped", "Map this revision's layers before adding an operating point.");
-  const conditions = toConditions(mapping as LayerMapInput, form, workspaceFluids);
+  const conditions = toConditions(mapping as LayerMapInput, form, workspaceFluids, await loadWorkspaceOverrides(ctx));
   const bytes = await readRevisionFile(revision.storageKey);
   let outcome: { status: "ok"; result: AnalyzeJson } | { status: "failed"; code: string; message: string };
   try {
