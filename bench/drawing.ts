@@ -6,7 +6,7 @@
  * Printed, never asserted. Export: run().
  */
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
+import { loadavg, tmpdir } from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import type { ChannelNetwork, NetworkNode, NetworkSegment } from "../lib/network/types";
@@ -90,18 +90,37 @@ export function solvedDocument(network: ChannelNetwork, inlet = "IN", flow = "10
  * React from the repo's node_modules) and compile the app's Tailwind CSS.
  * Returns the page's HTML (script and style inline) for page.setContent.
  */
-export async function buildWorkbenchPage(): Promise<string> {
+export async function buildWorkbenchPage(part: "workbench" | "drawing" = "workbench"): Promise<string> {
   const { build } = await import("esbuild");
   const dir = mkdtempSync(path.join(tmpdir(), "stokeline-view-"));
   try {
     const entry = path.join(dir, "entry.tsx");
+    const comp = (f: string) => JSON.stringify(path.join(ROOT, "components/analysis", f));
     writeFileSync(
       entry,
-      `import { createRoot } from "react-dom/client";
-import { AnalysisWorkbench } from ${JSON.stringify(path.join(ROOT, "components/analysis/index.ts"))};
+      part === "workbench"
+        ? `import { createRoot } from "react-dom/client";
+import { AnalysisWorkbench } from ${comp("index.ts")};
 performance.mark("bundle-start");
 const props = JSON.parse(document.getElementById("props")!.textContent!) as Parameters<typeof AnalysisWorkbench>[0];
 createRoot(document.getElementById("root")!).render(<AnalysisWorkbench {...props} />);
+`
+        : // The drawing alone, coloured by pressure as the workbench first shows it.
+          `import { createRoot } from "react-dom/client";
+import { useState } from "react";
+import { ChipDrawing } from ${comp("chip-drawing.tsx")};
+import { createColourScale } from ${JSON.stringify(path.join(ROOT, "lib/analysis/colour-scales.ts"))};
+performance.mark("bundle-start");
+const props = JSON.parse(document.getElementById("props")!.textContent!);
+const a = props.analysis;
+const p = new Map(a.nodes.map((n: { id: string; pressure_Pa?: number }) => [n.id, n.pressure_Pa ?? 0]));
+const v = new Map(a.segments.map((s: { id: string; from: string; to: string }) => [s.id, ((p.get(s.from) as number) + (p.get(s.to) as number)) / 2]));
+const scale = createColourScale(v.values());
+function Only() {
+  const [sel, setSel] = useState<string | null>(null);
+  return <ChipDrawing analysis={a} colourOf={(id) => scale.colour(v.get(id) as number)} colourKey="p" selectedId={sel} onSelect={setSel} markers={[]} describe={(id) => id} label="drawing" />;
+}
+createRoot(document.getElementById("root")!).render(<Only />);
 `,
     );
     const out = await build({
@@ -151,17 +170,22 @@ export async function servePage(html: string): Promise<{ url: string; close: () 
 }
 
 export async function run(): Promise<void> {
-  const { chromium } = await import("playwright-core");
   const cols = 72;
   const rows = 72;
   let t = performance.now();
   const network = gridNetwork(cols, rows);
   const doc = solvedDocument(network);
   console.log(`grid ${cols}×${rows}: ${doc.segments.length} segments, solved and serialised in ${(performance.now() - t).toFixed(0)} ms`);
-  t = performance.now();
-  const html = withProps(await buildWorkbenchPage(), { analysis: doc, labels: { chip: "Bench grid", revision: "r1" } });
-  console.log(`page bundled with CSS in ${(performance.now() - t).toFixed(0)} ms (${(html.length / 1e6).toFixed(1)} MB with data)`);
+  for (const part of ["drawing", "workbench"] as const) {
+    t = performance.now();
+    const html = withProps(await buildWorkbenchPage(part), { analysis: doc, labels: { chip: "Bench grid", revision: "r1" } });
+    console.log(`${part}: page bundled with CSS in ${(performance.now() - t).toFixed(0)} ms (${(html.length / 1e6).toFixed(1)} MB with data)`);
+    await timePage(html, part, doc.segments.length);
+  }
+}
 
+async function timePage(html: string, part: string, segments: number): Promise<void> {
+  const { chromium } = await import("playwright-core");
   const served = await servePage(html);
   const browser = await chromium.launch({ executablePath: "/usr/bin/chromium", args: CHROMIUM_ARGS });
   try {
@@ -185,14 +209,17 @@ export async function run(): Promise<void> {
       })()`)) as { response: number; bundleStart: number; now: number };
       figures.push(marks.now);
       console.log(
-        `run ${i + 1}: ${mode} mode, interactive ${marks.now.toFixed(0)} ms after navigation start ` +
+        `  run ${i + 1}: ${mode} mode, interactive ${marks.now.toFixed(0)} ms after navigation start ` +
           `(HTML received ${marks.response.toFixed(0)} ms, app script started ${marks.bundleStart.toFixed(0)} ms; ` +
           `harness round trip ${tti.toFixed(0)} ms)`,
       );
       await page.close();
     }
     figures.sort((a, b) => a - b);
-    console.log(`median time to interactive for ${doc.segments.length} segments: ${figures[1].toFixed(0)} ms (goal: under 1000 ms on this machine)`);
+    console.log(
+      `  ${part}: median time to interactive for ${segments} segments ${figures[1].toFixed(0)} ms ` +
+        `(goal: under 1000 ms on this machine; 1-minute load average ${loadavg()[0].toFixed(1)} on ${(await import("node:os")).cpus().length} cores)`,
+    );
   } finally {
     await browser.close();
     await served.close();

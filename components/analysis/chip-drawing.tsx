@@ -11,7 +11,7 @@ import { memo, useCallback, useEffect, useId, useLayoutEffect, useMemo, useRef, 
 import { select } from "d3-selection";
 import { zoom as d3zoom, zoomIdentity, type ZoomBehavior, type ZoomTransform } from "d3-zoom";
 import type { AnalyzeJson, AnalyzeSegmentJson } from "@/lib/analysis/serialize";
-import { buildHitIndex, drawingBounds, fitTransform, hitSegment, midpointM, pathData, strokeWidthUm, toDrawing, UM_PER_M } from "./drawing-geometry";
+import { buildHitIndex, type HitIndex, drawingBounds, fitTransform, hitSegment, midpointM, pathData, strokeWidthUm, toDrawing, UM_PER_M } from "./drawing-geometry";
 import { FlagShape } from "./flag-marker";
 import type { Severity } from "./types";
 
@@ -73,7 +73,16 @@ export function ChipDrawing(props: ChipDrawingProps) {
   const hintId = useId();
 
   const box = useMemo(() => drawingBounds(analysis), [analysis]);
-  const index = useMemo(() => buildHitIndex(analysis.segments, box), [analysis, box]);
+  // The hit index is built after the first paint (idle time), or on the first pointer event if that comes sooner.
+  const indexRef = useRef<{ key: AnalyzeSegmentJson[]; index: HitIndex } | null>(null);
+  const getIndex = useCallback(() => {
+    if (indexRef.current?.key !== analysis.segments) indexRef.current = { key: analysis.segments, index: buildHitIndex(analysis.segments, box) };
+    return indexRef.current.index;
+  }, [analysis, box]);
+  useEffect(() => {
+    const id = setTimeout(getIndex, 50);
+    return () => clearTimeout(id);
+  }, [getIndex]);
   const byId = useMemo(() => new Map(analysis.segments.map((s) => [s.id, s])), [analysis]);
 
   // Track the host's size (its height is fixed by CSS, so nothing jumps on hydration); measured before the first paint.
@@ -154,7 +163,7 @@ export function ChipDrawing(props: ChipDrawingProps) {
   const hitAt = (clientX: number, clientY: number): string | null => {
     const p = pointerToDrawing(clientX, clientY);
     if (!p) return null;
-    const i = hitSegment(index, analysis.segments, p[0], p[1], 5 / t.k);
+    const i = hitSegment(getIndex(), analysis.segments, p[0], p[1], 5 / t.k);
     return i >= 0 ? analysis.segments[i].id : null;
   };
 

@@ -24,7 +24,7 @@ import { formatNumber, type FieldView } from "./fields";
 import { FlagIcon } from "./flag-marker";
 import { SEVERITY_LABEL, SEVERITY_ORDER, type Severity } from "./types";
 
-const PAGE_SIZE = 100;
+const PAGE_SIZE = 50;
 
 /** Columns hidden until chosen: the secondary ones, to keep the first view readable. */
 const HIDDEN_BY_DEFAULT = ["end_width", "from", "to", "section", "weber", "diffusion_time", "entrance_length", "min_bend_radius", "hydraulic_diameter", "pressure"];
