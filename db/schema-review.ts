@@ -12,6 +12,7 @@ import { sql } from "drizzle-orm";
 import { check, index, integer, primaryKey, real, sqliteTable, text } from "drizzle-orm/sqlite-core";
 import { users, workspaces } from "./schema";
 import { analyses, revisions } from "./schema-chips";
+import { NOTIFICATION_KINDS } from "@/lib/notifications/kinds";
 
 const at = (name: string) =>
   integer(name, { mode: "timestamp_ms" })
@@ -29,7 +30,6 @@ const revisionRef = () =>
     .references(() => revisions.id, { onDelete: "cascade" });
 
 export const FLAG_DECISIONS = ["waived", "must_fix"] as const;
-export const NOTIFICATION_KINDS = ["review_requested", "changes_requested", "cleared", "mentioned"] as const;
 
 export const flagDispositions = sqliteTable(
   "flag_dispositions",
