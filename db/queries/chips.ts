@@ -311,3 +311,25 @@ export async function getLatestLayerMapForChip(scope: WorkspaceScope, chipId: nu
     .limit(1);
   return rows[0]?.mapping ?? null;
 }
+
+/** The member's stored display units for the analysis view (users.unit_preferences). */
+export async function getUserUnitPreferences(userId: number): Promise<Record<string, string>> {
+  const rows = await getDb().select({ prefs: users.unitPreferences }).from(users).where(eq(users.id, userId)).limit(1);
+  return rows[0]?.prefs ?? {};
+}
+
+/** Replaces the member's display units (already validated by unitPreferencesSchema). */
+export async function saveUserUnitPreferences(userId: number, prefs: Record<string, string>): Promise<void> {
+  await getDb().update(users).set({ unitPreferences: prefs }).where(eq(users.id, userId));
+}
+
+/** The latest analysis of a revision (any status), or null — for "compare with the previous revision". */
+export async function getLatestAnalysisIdForRevision(scope: WorkspaceScope, revisionId: number): Promise<number | null> {
+  const rows = await getDb()
+    .select({ id: analyses.id })
+    .from(analyses)
+    .where(and(inWorkspace(scope, analyses.workspaceId), eq(analyses.revisionId, revisionId), eq(analyses.status, "ok")))
+    .orderBy(desc(analyses.id))
+    .limit(1);
+  return rows[0]?.id ?? null;
+}

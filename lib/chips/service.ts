@@ -240,3 +240,15 @@ export async function createOperatingPoint(
   });
 }
 
+
+/** A chip's revisions with their analyses and whether their layers are mapped, newest first, for the history page. */
+export async function listRevisionHistory(ctx: MemberContext, chipId: number) {
+  const revisions = await q.listRevisions(ctx.scope, chipId);
+  return Promise.all(
+    revisions.map(async (r) => ({
+      revision: r,
+      mapped: (await q.getLayerMap(ctx.scope, r.id)) !== null,
+      analyses: await q.listAnalyses(ctx.scope, r.id),
+    })),
+  );
+}
