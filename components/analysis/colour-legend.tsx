@@ -3,7 +3,7 @@
 import { useId } from "react";
 import type { ColourScale } from "@/lib/analysis/colour-scales";
 import { NO_DATA_COLOUR } from "@/lib/analysis/colour-scales";
-import { formatNumber } from "./fields";
+import { formatNumber, formatTick } from "./fields";
 
 export function ColourLegend({ scale, label, unitLabel, toDisplay, missing }: { scale: ColourScale; label: string; unitLabel: string; toDisplay: (si: number) => number; missing: number }) {
   const gid = useId().replace(/:/g, "");
@@ -31,7 +31,7 @@ export function ColourLegend({ scale, label, unitLabel, toDisplay, missing }: { 
           return (
             <g key={v} transform={`translate(${x},12)`}>
               <line y2={5} stroke="#293d54" />
-              <text y={16} textAnchor="middle" className="fill-ink-800 font-mono text-[10px]">{formatNumber(toDisplay(v))}</text>
+              <text y={16} textAnchor="middle" className="fill-ink-800 font-mono text-[10px]">{formatTick(toDisplay(v))}</text>
             </g>
           );
         })}

@@ -129,3 +129,15 @@ export function formatNumber(x: number | null | undefined): string {
   if (!m) return s;
   return `${m[1]}×10${[...m[2]].map((c) => SUPERSCRIPT[c] ?? c).join("")}`;
 }
+
+/** An axis or legend tick: shortest plain form ("0.001", "20", "1500"), or "10⁻⁶" / "2×10⁶" outside 0.001…99,999. */
+export function formatTick(x: number): string {
+  if (!Number.isFinite(x)) return "";
+  if (x === 0) return "0";
+  const a = Math.abs(x);
+  if (a >= 1e-3 && a < 1e5) return String(Number(x.toPrecision(3)));
+  const exp = Math.floor(Math.log10(a));
+  const mant = Number((x / 10 ** exp).toPrecision(3));
+  const power = `10${[...String(exp)].map((c) => SUPERSCRIPT[c] ?? c).join("")}`;
+  return mant === 1 ? power : mant === -1 ? `−${power}` : `${mant}×${power}`;
+}

@@ -9,7 +9,7 @@ import { scaleLinear } from "d3-scale";
 import { DomainError } from "@/lib/errors";
 import { pressureProfile, type PressureProfile } from "@/lib/analysis/profile";
 import type { AnalyzeJson } from "@/lib/analysis/serialize";
-import { formatNumber } from "./fields";
+import { formatNumber, formatTick } from "./fields";
 
 const W = 620;
 const H = 300;
@@ -88,13 +88,13 @@ function ProfilePlot({ profile, pressure, selectedId, onSelect }: { profile: Pre
         {x.ticks(6).map((t) => (
           <g key={`x${t}`} transform={`translate(${x(t)},0)`}>
             <line y1={M.top} y2={H - M.bottom} stroke="#e3e9f0" />
-            <text y={H - M.bottom + 14} textAnchor="middle" className="fill-ink-700 font-mono text-[10px]">{formatNumber(t)}</text>
+            <text y={H - M.bottom + 14} textAnchor="middle" className="fill-ink-700 font-mono text-[10px]">{formatTick(t)}</text>
           </g>
         ))}
         {y.ticks(5).map((t) => (
           <g key={`y${t}`} transform={`translate(0,${y(t)})`}>
             <line x1={M.left} x2={W - M.right} stroke="#e3e9f0" />
-            <text x={M.left - 6} dominantBaseline="middle" textAnchor="end" className="fill-ink-700 font-mono text-[10px]">{formatNumber(t)}</text>
+            <text x={M.left - 6} dominantBaseline="middle" textAnchor="end" className="fill-ink-700 font-mono text-[10px]">{formatTick(t)}</text>
           </g>
         ))}
         {profile.steps.map((s) => {

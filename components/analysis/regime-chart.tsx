@@ -5,12 +5,12 @@
  * them named. Clicking a point selects its segment (nearest point found with a
  * d3-quadtree, so ten thousand points stay responsive).
  */
-import { useId, useMemo, useState } from "react";
+import { useEffect, useId, useMemo, useRef, useState } from "react";
 import { scaleLog } from "d3-scale";
 import { quadtree } from "d3-quadtree";
 import type { AnalyzeJson, AnalyzeSegmentJson } from "@/lib/analysis/serialize";
 import { FlagShape } from "./flag-marker";
-import { formatNumber } from "./fields";
+import { formatNumber, formatTick } from "./fields";
 import type { Severity } from "./types";
 
 export type GroupKey = "reynolds" | "capillary" | "peclet" | "dean" | "weber";
@@ -85,6 +85,7 @@ export const GROUPS: GroupDef[] = [
 ];
 
 const W = 620;
+const CANVAS_POINTS = 2000;
 const H = 400;
 const M = { top: 30, right: 120, bottom: 44, left: 60 };
 
@@ -149,15 +150,51 @@ export function RegimeChart({ analysis, flagsBySegment, selectedId, onSelect }: 
   }, [analysis.segments, xKey, yKey, flagsBySegment]);
   const omitted = analysis.segments.length - points.length;
 
-  const xT = [...gx.thresholds, ...(flagLines.get(xKey) ?? [])];
-  const yT = [...gy.thresholds, ...(flagLines.get(yKey) ?? [])];
-  const xs = scaleLog().domain(decadeDomain(points.map((p) => p.x), xT)).range([M.left, W - M.right]);
-  const ys = scaleLog().domain(decadeDomain(points.map((p) => p.y), yT)).range([H - M.bottom, M.top]);
+  const { xT, yT, xs, ys } = useMemo(() => {
+    const xT = [...gx.thresholds, ...(flagLines.get(gx.key) ?? [])];
+    const yT = [...gy.thresholds, ...(flagLines.get(gy.key) ?? [])];
+    const xs = scaleLog().domain(decadeDomain(points.map((p) => p.x), xT)).range([M.left, W - M.right]);
+    const ys = scaleLog().domain(decadeDomain(points.map((p) => p.y), yT)).range([H - M.bottom, M.top]);
+    return { xT, yT, xs, ys };
+  }, [gx, gy, flagLines, points]);
   const tree = useMemo(() => quadtree(points, (p) => xs(p.x), (p) => ys(p.y)), [points, xs, ys]);
 
-  const onClick = (e: React.MouseEvent<SVGSVGElement>) => {
-    const svg = e.currentTarget;
-    const r = svg.getBoundingClientRect();
+  // Many points: the unflagged ones are painted on a canvas (thousands of SVG circles are slow to lay out).
+  const many = points.length > CANVAS_POINTS;
+  const wrapRef = useRef<HTMLDivElement>(null);
+  const canvasRef = useRef<HTMLCanvasElement>(null);
+  useEffect(() => {
+    const wrap = wrapRef.current;
+    const canvas = canvasRef.current;
+    if (!many || !wrap || !canvas) return;
+    const draw = () => {
+      const w = wrap.clientWidth;
+      const h = (w * H) / W;
+      const dpr = window.devicePixelRatio || 1;
+      canvas.width = Math.round(w * dpr);
+      canvas.height = Math.round(h * dpr);
+      canvas.style.width = `${w}px`;
+      canvas.style.height = `${h}px`;
+      const ctx = canvas.getContext("2d");
+      if (!ctx) return;
+      ctx.setTransform((dpr * w) / W, 0, 0, (dpr * w) / W, 0, 0);
+      ctx.fillStyle = "rgba(14,133,114,0.55)";
+      ctx.beginPath();
+      for (const p of points) {
+        if (p.sev) continue;
+        ctx.moveTo(xs(p.x) + 2.6, ys(p.y));
+        ctx.arc(xs(p.x), ys(p.y), 2.6, 0, 2 * Math.PI);
+      }
+      ctx.fill();
+    };
+    draw();
+    const ro = new ResizeObserver(draw);
+    ro.observe(wrap);
+    return () => ro.disconnect();
+  }, [many, points, xs, ys]);
+
+  const onClick = (e: React.MouseEvent<HTMLDivElement>) => {
+    const r = e.currentTarget.getBoundingClientRect();
     const px = ((e.clientX - r.left) / r.width) * W;
     const py = ((e.clientY - r.top) / r.height) * H;
     const hit = tree.find(px, py, 10);
@@ -176,7 +213,8 @@ export function RegimeChart({ analysis, flagsBySegment, selectedId, onSelect }: 
         <AxisPicker label="Horizontal axis" value={xKey} onChange={setXKey} />
         <AxisPicker label="Vertical axis" value={yKey} onChange={setYKey} />
       </div>
-      <svg viewBox={`0 0 ${W} ${H}`} className="h-auto w-full cursor-pointer select-none" role="img" aria-label={`${gy.name} against ${gx.name} for ${points.length} segments, log–log; thresholds ${[...xT, ...yT].map((t) => t.label).join(", ")}`} onClick={onClick} data-testid="regime-chart">
+      <div ref={wrapRef} className="relative cursor-pointer select-none" onClick={onClick}>
+      <svg viewBox={`0 0 ${W} ${H}`} className="block h-auto w-full" role="img" aria-label={`${gy.name} against ${gx.name} for ${points.length} segments, log–log; thresholds ${[...xT, ...yT].map((t) => t.label).join(", ")}`} data-testid="regime-chart">
         {regionsX.map((b, i) => (
           <g key={`rx${i}`}>
             <rect x={xs(b.lo)} y={M.top} width={xs(b.hi) - xs(b.lo)} height={H - M.top - M.bottom} fill={i % 2 ? "#f3f6f9" : "#ffffff"} />
@@ -189,13 +227,13 @@ export function RegimeChart({ analysis, flagsBySegment, selectedId, onSelect }: 
         {decades(xs).map((t) => (
           <g key={`x${t}`} transform={`translate(${xs(t)},0)`}>
             <line y1={M.top} y2={H - M.bottom} stroke="#e3e9f0" />
-            <text y={H - M.bottom + 14} textAnchor="middle" className="fill-ink-700 font-mono text-[10px]">{formatNumber(t)}</text>
+            <text y={H - M.bottom + 14} textAnchor="middle" className="fill-ink-700 font-mono text-[10px]">{formatTick(t)}</text>
           </g>
         ))}
         {decades(ys).map((t) => (
           <g key={`y${t}`} transform={`translate(0,${ys(t)})`}>
             <line x1={M.left} x2={W - M.right} stroke="#e3e9f0" />
-            <text x={M.left - 6} dominantBaseline="middle" textAnchor="end" className="fill-ink-700 font-mono text-[10px]">{formatNumber(t)}</text>
+            <text x={M.left - 6} dominantBaseline="middle" textAnchor="end" className="fill-ink-700 font-mono text-[10px]">{formatTick(t)}</text>
           </g>
         ))}
         {xT.map((t) => (
@@ -213,19 +251,22 @@ export function RegimeChart({ analysis, flagsBySegment, selectedId, onSelect }: 
           </g>
         ))}
         <rect x={M.left} y={M.top} width={W - M.left - M.right} height={H - M.top - M.bottom} fill="none" stroke="#9aaec4" />
-        <g>
-          {points.map((p) =>
-            p.sev ? (
-              <g key={p.id} transform={`translate(${xs(p.x)},${ys(p.y)})`}><FlagShape severity={p.sev} size={7} /></g>
-            ) : (
-              <circle key={p.id} cx={xs(p.x)} cy={ys(p.y)} r={2.6} fill="#0e8572" fillOpacity={0.55} stroke="#0b5249" strokeWidth={0.5} />
-            ),
-          )}
-        </g>
-        {selected && <circle cx={xs(selected.x)} cy={ys(selected.y)} r={8} fill="none" stroke="#111c29" strokeWidth={2} data-testid="regime-selected" />}
+        {!many && (
+          <g>
+            {points.map((p) =>
+              p.sev ? null : <circle key={p.id} cx={xs(p.x)} cy={ys(p.y)} r={2.6} fill="#0e8572" fillOpacity={0.55} stroke="#0b5249" strokeWidth={0.5} />,
+            )}
+          </g>
+        )}
         <text x={(M.left + W - M.right) / 2} y={H - 8} textAnchor="middle" className="fill-ink-900 text-[11px] font-medium">{gx.name}, {gx.symbol}</text>
         <text transform={`translate(14,${(M.top + H - M.bottom) / 2}) rotate(-90)`} textAnchor="middle" className="fill-ink-900 text-[11px] font-medium">{gy.name}, {gy.symbol}</text>
       </svg>
+      {many && <canvas ref={canvasRef} className="pointer-events-none absolute left-0 top-0" aria-hidden="true" />}
+      <svg viewBox={`0 0 ${W} ${H}`} className="pointer-events-none absolute inset-0 h-full w-full" aria-hidden="true">
+        {points.map((p) => (p.sev ? <g key={p.id} transform={`translate(${xs(p.x)},${ys(p.y)})`}><FlagShape severity={p.sev} size={7} /></g> : null))}
+        {selected && <circle cx={xs(selected.x)} cy={ys(selected.y)} r={8} fill="none" stroke="#111c29" strokeWidth={2} data-testid="regime-selected" />}
+      </svg>
+      </div>
       <p className="mt-1 text-xs text-ink-600">
         Dashed lines: published thresholds (hover a line for its source){flagLines.size > 0 ? " and this analysis's flag thresholds" : ""}. Points with a shape carry flags. Click a point to select its segment.
         {omitted > 0 && ` ${omitted} segment${omitted === 1 ? " has" : "s have"} no positive value on one of these axes and ${omitted === 1 ? "is" : "are"} not plotted.`}
