@@ -23,20 +23,36 @@ export interface AnalyzeSegmentJson {
   section: string;
   min_bend_radius_m: number | null;
   path_m: [number, number][];
+  // Hydraulics (present when ports are driven). Lumped, fully developed laminar model; see MODEL_CAUTIONS.
+  /** Hydraulic resistance R = Δp/Q, integrated along the segment's width profile. */
   resistance_Pa_s_per_m3?: number;
+  /** Volumetric flow Q, positive from `from` to `to`. */
   flow_m3_per_s?: number;
+  /** U = Q/A with A the length-averaged cross-section area; same sign as the flow. */
   mean_velocity_m_per_s?: number;
+  /** p(from) − p(to). */
   pressure_drop_Pa?: number;
+  /** D_h = 4A/P (wetted perimeter, lid included). */
   hydraulic_diameter_m?: number;
+  /** Re = ρ·|U|·D_h/μ (inertial / viscous). */
   reynolds?: number;
+  /** Ca = μ·|U|/σ, continuous-phase viscosity; σ is the interfacial tension when a second phase is given. */
   capillary?: number;
+  /** We = ρ·U²·D_h/σ (inertial / surface). */
   weber?: number;
+  /** Pe = |U|·w/D, w the channel width (the mixing direction), D the solute diffusivity. */
   peclet?: number;
+  /** De = Re·√(D_h/(2·R_c)), R_c the smallest bend radius; null for a straight segment. */
   dean?: number | null;
+  /** Peak wall shear: exact series for rectangles, 4μQ/(πa³) for circles, equivalent rectangle for other sections. */
   wall_shear_Pa?: number;
+  /** Volume / |Q|; serialised as null (Infinity in memory) where the segment carries no flow. */
   residence_s?: number;
+  /** w²/D, time to diffuse across the width. */
   diffusion_time_s?: number;
+  /** ≈ Pe·w = |U|·w²/D, length the flow travels while the solute diffuses across (Squires & Quake 2005). */
   mixing_length_m?: number;
+  /** Hydrodynamic entrance length, Durst et al. (2005) correlation on D_h. */
   entrance_length_m?: number;
 }
 
@@ -47,6 +63,8 @@ export interface AnalyzeJson {
   mapping_proposed: boolean;
   nodes: { id: string; x_m: number; y_m: number; kind: string; port: string | null; pressure_Pa?: number }[];
   segments: AnalyzeSegmentJson[];
+  /** Port pressure is gauge (for a flow-driven port: the pressure its pump must supply); flow is positive into the chip;
+   * bond is Bo = Δρ·g_n·r²/σ with r the port radius (the liquid against air in the port). Undriven ports are open (0 Pa). */
   ports: { name: string; node: string; x_m: number; y_m: number; radius_m: number; drive?: string; pressure_Pa?: number; flow_m3_per_s?: number; bond?: number }[];
   warnings: { code: string; message: string; at?: { x_m: number; y_m: number } }[];
   layers: { name: string; role: string; entities: number; by_type: Record<string, number>; style?: string; proposed_role?: string }[];
