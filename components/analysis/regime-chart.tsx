@@ -1,88 +1,100 @@
 "use client";
 /**
  * The regime map: every segment placed on log–log axes of two dimensionless
- * groups, with the published thresholds drawn as lines and the regions between
- * them named. Clicking a point selects its segment (nearest point found with a
+ * groups, with the regime rules' thresholds (lib/rules/registry.ts) drawn as
+ * lines and the regions between them named. Clicking a point selects its segment (nearest point found with a
  * d3-quadtree, so ten thousand points stay responsive).
  */
 import { useEffect, useId, useMemo, useRef, useState } from "react";
 import { scaleLog } from "d3-scale";
 import { quadtree } from "d3-quadtree";
 import type { AnalyzeJson, AnalyzeSegmentJson } from "@/lib/analysis/serialize";
+import { RULES } from "@/lib/rules/registry";
 import { FlagShape } from "./flag-marker";
-import { formatNumber, formatTick } from "./fields";
+import { formatTick } from "./fields";
 import type { Severity } from "./types";
 
 export type GroupKey = "reynolds" | "capillary" | "peclet" | "dean" | "weber";
 
-interface Threshold {
+export interface Threshold {
   value: number;
   label: string;
   source: string;
+  /** Name of the region above this threshold (up to the next one). */
+  above: string;
 }
 
 interface GroupDef {
   key: GroupKey;
   name: string;
   symbol: string;
-  /** Published thresholds on this axis, ascending. */
-  thresholds: Threshold[];
-  /** Names of the regions between thresholds: one more than thresholds. */
-  regions: string[];
-  /** Flag-code prefixes whose threshold belongs on this axis. */
-  codePrefixes: string[];
+  /** Name of the region below the first threshold. */
+  below: string;
+  /** Region names above each rule's threshold, by rule code (the thresholds themselves come from lib/rules). */
+  aboveByCode: Record<string, string>;
+  /** Lines for groups no rule watches: definitions, with their source. */
+  fixed: Threshold[];
 }
 
-// Thresholds and their sources: /work/shared/REFERENCES.md §5.
 export const GROUPS: GroupDef[] = [
   {
     key: "reynolds",
     name: "Reynolds number",
     symbol: "Re",
-    thresholds: [
-      { value: 1, label: "Re = 1", source: "viscous ≫ inertial below (common practice)" },
-      { value: 100, label: "Re = 100", source: "inertial microfluidics ~1–100 (Di Carlo, Lab Chip 9, 3038, 2009)" },
-      { value: 2300, label: "Re = 2300", source: "engineering laminar limit (White, Fluid Mechanics)" },
-    ],
-    regions: ["creeping", "inertial focusing", "strong inertia", "transition"],
-    codePrefixes: ["re_", "reynolds"],
+    below: "creeping",
+    aboveByCode: { re_inertial: "inertial focusing", re_strongly_inertial: "strong inertia", re_turbulent: "transition" },
+    fixed: [],
   },
   {
     key: "capillary",
     name: "Capillary number",
     symbol: "Ca",
-    thresholds: [
-      { value: 0.01, label: "Ca = 0.01", source: "squeezing below (Garstecki et al., Lab Chip 6, 437, 2006)" },
-      { value: 0.015, label: "Ca* ≈ 0.015", source: "squeezing→dripping (De Menech et al., J. Fluid Mech. 595, 141, 2008)" },
-    ],
-    regions: ["squeezing", "", "dripping / jetting"],
-    codePrefixes: ["ca_", "capillary"],
+    below: "squeezing",
+    aboveByCode: { droplet_squeezing: "", droplet_dripping: "dripping", droplet_jetting: "jetting" },
+    fixed: [],
   },
   {
     key: "peclet",
     name: "Péclet number",
     symbol: "Pe",
-    thresholds: [{ value: 1, label: "Pe = 1", source: "diffusion vs. advection across the width (Squires & Quake, Rev. Mod. Phys. 77, 977, 2005)" }],
-    regions: ["diffusion-led", "advection-led"],
-    codePrefixes: ["pe_", "peclet", "mix"],
+    below: "diffusion-led",
+    aboveByCode: {},
+    fixed: [{ value: 1, label: "Pe = 1", source: "advection equals diffusion across the width (definition; Squires & Quake, Rev. Mod. Phys. 77, 977, 2005)", above: "advection-led" }],
   },
   {
     key: "dean",
     name: "Dean number",
     symbol: "De",
-    thresholds: [{ value: 1, label: "De = 1", source: "secondary Dean flow becomes noticeable (common practice)" }],
-    regions: ["weak secondary flow", "Dean vortices"],
-    codePrefixes: ["de_", "dean"],
+    below: "weak secondary flow",
+    aboveByCode: { dean_secondary_flow: "Dean vortices" },
+    fixed: [],
   },
   {
     key: "weber",
     name: "Weber number",
     symbol: "We",
-    thresholds: [{ value: 1, label: "We = 1", source: "inertia vs. interfacial tension (definition)" }],
-    regions: ["tension-held", "inertia breaks interfaces"],
-    codePrefixes: ["we_", "weber"],
+    below: "tension-held",
+    aboveByCode: {},
+    fixed: [{ value: 1, label: "We = 1", source: "inertia equals interfacial tension (definition)", above: "inertia deforms interfaces" }],
   },
 ];
+
+/**
+ * Threshold lines of one axis: the rule registry's regime rules on that group
+ * (default threshold, or the value this analysis's flags carry when a
+ * workspace overrode it), else the group's defining value. Ascending.
+ */
+export function axisThresholds(g: GroupDef, flags: AnalyzeJson["flags"]): Threshold[] {
+  const lines: Threshold[] = [...g.fixed];
+  for (const rule of RULES) {
+    if (rule.family !== "regime" || !(rule.code in g.aboveByCode)) continue;
+    const carried = flags.find((f) => f.code === rule.code && typeof f.threshold === "number" && f.threshold > 0)?.threshold;
+    const value = carried ?? rule.defaultThreshold;
+    if (typeof value !== "number" || !(value > 0)) continue;
+    lines.push({ value, label: `${g.symbol} = ${formatTick(value)}`, source: `${rule.title} (${rule.code}): ${rule.source}`, above: g.aboveByCode[rule.code] });
+  }
+  return lines.sort((a, b) => a.value - b.value);
+}
 
 const W = 620;
 const CANVAS_POINTS = 2000;
@@ -123,22 +135,6 @@ export function RegimeChart({ analysis, flagsBySegment, selectedId, onSelect }: 
   const gx = GROUPS.find((g) => g.key === xKey)!;
   const gy = GROUPS.find((g) => g.key === yKey)!;
 
-  // Flag thresholds carried by this analysis's regime flags, placed on the axis their code names.
-  const flagLines = useMemo(() => {
-    const lines = new Map<GroupKey, Threshold[]>();
-    for (const f of analysis.flags) {
-      if (f.family !== "regime" || typeof f.threshold !== "number" || !(f.threshold > 0)) continue;
-      const g = GROUPS.find((x) => x.codePrefixes.some((p) => f.code.toLowerCase().startsWith(p)));
-      if (!g) continue;
-      const list = lines.get(g.key) ?? [];
-      if (!list.some((t) => t.value === f.threshold) && !g.thresholds.some((t) => t.value === f.threshold)) {
-        list.push({ value: f.threshold, label: `${g.symbol} = ${formatNumber(f.threshold)} (${f.code})`, source: f.source });
-      }
-      lines.set(g.key, list);
-    }
-    return lines;
-  }, [analysis.flags]);
-
   const points = useMemo(() => {
     const out: { id: string; x: number; y: number; sev: Severity | null }[] = [];
     for (const s of analysis.segments) {
@@ -151,12 +147,12 @@ export function RegimeChart({ analysis, flagsBySegment, selectedId, onSelect }: 
   const omitted = analysis.segments.length - points.length;
 
   const { xT, yT, xs, ys } = useMemo(() => {
-    const xT = [...gx.thresholds, ...(flagLines.get(gx.key) ?? [])];
-    const yT = [...gy.thresholds, ...(flagLines.get(gy.key) ?? [])];
+    const xT = axisThresholds(gx, analysis.flags);
+    const yT = axisThresholds(gy, analysis.flags);
     const xs = scaleLog().domain(decadeDomain(points.map((p) => p.x), xT)).range([M.left, W - M.right]);
     const ys = scaleLog().domain(decadeDomain(points.map((p) => p.y), yT)).range([H - M.bottom, M.top]);
     return { xT, yT, xs, ys };
-  }, [gx, gy, flagLines, points]);
+  }, [gx, gy, analysis.flags, points]);
   const tree = useMemo(() => quadtree(points, (p) => xs(p.x), (p) => ys(p.y)), [points, xs, ys]);
 
   // Many points: the unflagged ones are painted on a canvas (thousands of SVG circles are slow to lay out).
@@ -203,8 +199,8 @@ export function RegimeChart({ analysis, flagsBySegment, selectedId, onSelect }: 
 
   const selected = points.find((p) => p.id === selectedId);
   const decades = (s: typeof xs) => s.ticks().filter((t) => Math.abs(Math.log10(t) - Math.round(Math.log10(t))) < 1e-9);
-  const regionsX = bands(gx, xs.domain() as [number, number]);
-  const regionsY = bands(gy, ys.domain() as [number, number]);
+  const regionsX = bands(gx, xT, xs.domain() as [number, number]);
+  const regionsY = bands(gy, yT, ys.domain() as [number, number]);
 
   return (
     <section aria-labelledby={titleId} className="rounded-md border border-ink-200 bg-white p-3">
@@ -268,20 +264,21 @@ export function RegimeChart({ analysis, flagsBySegment, selectedId, onSelect }: 
       </svg>
       </div>
       <p className="mt-1 text-xs text-ink-600">
-        Dashed lines: published thresholds (hover a line for its source){flagLines.size > 0 ? " and this analysis's flag thresholds" : ""}. Points with a shape carry flags. Click a point to select its segment.
+        Dashed lines: the thresholds of Stokeline&apos;s regime rules (hover a line for its rule and source). Points with a shape carry flags. Click a point to select its segment.
         {omitted > 0 && ` ${omitted} segment${omitted === 1 ? " has" : "s have"} no positive value on one of these axes and ${omitted === 1 ? "is" : "are"} not plotted.`}
       </p>
     </section>
   );
 }
 
-function bands(g: GroupDef, domain: [number, number]): { lo: number; hi: number; name: string }[] {
-  const edges = [domain[0], ...g.thresholds.map((t) => t.value), domain[1]];
+function bands(g: GroupDef, lines: Threshold[], domain: [number, number]): { lo: number; hi: number; name: string }[] {
+  const edges = [domain[0], ...lines.map((t) => t.value), domain[1]];
+  const names = [g.below, ...lines.map((t) => t.above)];
   const out: { lo: number; hi: number; name: string }[] = [];
   for (let i = 0; i < edges.length - 1; i++) {
     const lo = Math.max(edges[i], domain[0]);
     const hi = Math.min(edges[i + 1], domain[1]);
-    if (hi > lo) out.push({ lo, hi, name: g.regions[i] ?? "" });
+    if (hi > lo) out.push({ lo, hi, name: names[i] ?? "" });
   }
   return out;
 }
