@@ -13,7 +13,7 @@ import { readDxf, MAX_LAYOUT_BYTES } from "../dxf/read";
 import type { CircleEntity, DxfDrawing, PathEntity, Piece, TextEntity } from "../dxf/types";
 import { parseQuantity } from "../units/quantity";
 import { bboxOf, circleCrossings, endOf, intersect, pieceLength, pointAt, project, reversed, samplePoints, startOf, subPiece } from "./geometry";
-import { SpatialGrid } from "./grid";
+import { joinNearPoints, StaticGrid } from "./grid";
 import { describeLayers, planLayers, type LayerPlan, type ResolvedLayer } from "./layers";
 import type { ChannelNetwork, LayoutWarning, NetworkNode, NetworkPort, NetworkSegment, NodeKind, WidthSample } from "./types";
 
@@ -133,7 +133,7 @@ function nameports(circles: CircleEntity[], texts: TextEntity[], warnings: Layou
 const scratch: number[] = [];
 
 /** Cut away the parts of a piece inside any port circle. */
-function trimByPorts(w: Work, ports: PortCircle[], grid: SpatialGrid | null): Work[] | null {
+function trimByPorts(w: Work, ports: PortCircle[], grid: StaticGrid | null): Work[] | null {
   if (!grid) return null;
   const [minX, minY, maxX, maxY] = w.box;
   const hits = grid.queryInto(minX, minY, maxX, maxY, scratch);
@@ -183,7 +183,7 @@ function chooseCellSize(works: Work[], snap: number): number {
 }
 
 /** Split parameters for every piece: T-junctions and crossings. Lines (the common case) are handled inline, without allocation. */
-function findSplits(works: Work[], grid: SpatialGrid, snap: number): (number[] | null)[] {
+function findSplits(works: Work[], cellSize: number, snap: number): (number[] | null)[] {
   const n = works.length;
   const splits: (number[] | null)[] = new Array(n).fill(null);
   const add = (i: number, t: number) => {
@@ -191,9 +191,8 @@ function findSplits(works: Work[], grid: SpatialGrid, snap: number): (number[] |
     if (list) list.push(t);
     else splits[i] = [t];
   };
-  const stamp = new Int32Array(n).fill(-1);
   const interior = (i: number, t: number) => t * works[i].len > snap && (1 - t) * works[i].len > snap;
-  const cand: number[] = [];
+  const snap2 = snap * snap;
   // Endpoint of one piece on the interior of another (T-junction): split the other there.
   const endOnto = (x: number, y: number, j: number) => {
     const q = works[j].p;
@@ -204,57 +203,59 @@ function findSplits(works: Work[], grid: SpatialGrid, snap: number): (number[] |
       if (l2 === 0) return;
       const t = ((x - q.x0) * dx + (y - q.y0) * dy) / l2;
       if (t <= 0 || t >= 1) return;
-      if (Math.hypot(x - (q.x0 + dx * t), y - (q.y0 + dy * t)) <= snap && interior(j, t)) add(j, t);
+      const ex = x - (q.x0 + dx * t);
+      const ey = y - (q.y0 + dy * t);
+      if (ex * ex + ey * ey <= snap2 && interior(j, t)) add(j, t);
       return;
     }
     const pr = project(q, x, y);
     if (pr.dist <= snap && interior(j, pr.t)) add(j, pr.t);
   };
+  // Boxes grown by the snap tolerance, so pieces that nearly touch are paired too.
+  const boxes = new Float64Array(n * 4);
   for (let i = 0; i < n; i++) {
-    const wi = works[i];
-    const bi = wi.box;
-    const pi = wi.p;
-    grid.queryInto(bi[0] - snap, bi[1] - snap, bi[2] + snap, bi[3] + snap, cand);
-    for (let c = 0; c < cand.length; c++) {
-      const j = cand[c];
-      if (j <= i || stamp[j] === i) continue;
-      stamp[j] = i;
-      const bj = works[j].box;
-      if (bj[0] > bi[2] + snap || bj[2] < bi[0] - snap || bj[1] > bi[3] + snap || bj[3] < bi[1] - snap) continue;
-      const pj = works[j].p;
-      if (pi.kind === "line" && pj.kind === "line") {
-        const rx = pi.x1 - pi.x0;
-        const ry = pi.y1 - pi.y0;
-        const sx = pj.x1 - pj.x0;
-        const sy = pj.y1 - pj.y0;
-        const den = rx * sy - ry * sx;
-        if (Math.abs(den) > 1e-14 * Math.hypot(rx, ry) * Math.hypot(sx, sy)) {
-          const qpx = pj.x0 - pi.x0;
-          const qpy = pj.y0 - pi.y0;
-          const t = (qpx * sy - qpy * sx) / den;
-          const u = (qpx * ry - qpy * rx) / den;
-          if (t >= 0 && t <= 1 && u >= 0 && u <= 1) {
-            if (interior(i, t)) add(i, t);
-            if (interior(j, u)) add(j, u);
-          }
-        }
-        endOnto(pi.x0, pi.y0, j);
-        endOnto(pi.x1, pi.y1, j);
-        endOnto(pj.x0, pj.y0, i);
-        endOnto(pj.x1, pj.y1, i);
-        continue;
-      }
-      for (const h of intersect(pi, pj)) {
-        if (interior(i, h.t)) add(i, h.t);
-        if (interior(j, h.u)) add(j, h.u);
-      }
-      const a0 = startOf(pi), a1 = endOf(pi), b0 = startOf(pj), b1 = endOf(pj);
-      endOnto(a0.x, a0.y, j);
-      endOnto(a1.x, a1.y, j);
-      endOnto(b0.x, b0.y, i);
-      endOnto(b1.x, b1.y, i);
-    }
+    const b = works[i].box;
+    boxes[4 * i] = b[0] - snap;
+    boxes[4 * i + 1] = b[1] - snap;
+    boxes[4 * i + 2] = b[2] + snap;
+    boxes[4 * i + 3] = b[3] + snap;
   }
+  const grid = new StaticGrid(cellSize, boxes);
+  grid.forEachOverlappingPair(boxes, (i, j) => {
+    const pi = works[i].p;
+    const pj = works[j].p;
+    if (pi.kind === "line" && pj.kind === "line") {
+      const rx = pi.x1 - pi.x0;
+      const ry = pi.y1 - pi.y0;
+      const sx = pj.x1 - pj.x0;
+      const sy = pj.y1 - pj.y0;
+      const den = rx * sy - ry * sx;
+      if (Math.abs(den) > 1e-14 * Math.sqrt((rx * rx + ry * ry) * (sx * sx + sy * sy))) {
+        const qpx = pj.x0 - pi.x0;
+        const qpy = pj.y0 - pi.y0;
+        const t = (qpx * sy - qpy * sx) / den;
+        const u = (qpx * ry - qpy * rx) / den;
+        if (t >= 0 && t <= 1 && u >= 0 && u <= 1) {
+          if (interior(i, t)) add(i, t);
+          if (interior(j, u)) add(j, u);
+        }
+      }
+      endOnto(pi.x0, pi.y0, j);
+      endOnto(pi.x1, pi.y1, j);
+      endOnto(pj.x0, pj.y0, i);
+      endOnto(pj.x1, pj.y1, i);
+      return;
+    }
+    for (const h of intersect(pi, pj)) {
+      if (interior(i, h.t)) add(i, h.t);
+      if (interior(j, h.u)) add(j, h.u);
+    }
+    const a0 = startOf(pi), a1 = endOf(pi), b0 = startOf(pj), b1 = endOf(pj);
+    endOnto(a0.x, a0.y, j);
+    endOnto(a1.x, a1.y, j);
+    endOnto(b0.x, b0.y, i);
+    endOnto(b1.x, b1.y, i);
+  });
   return splits;
 }
 
@@ -425,11 +426,12 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   stage("sort by role");
   // Ports and trimming.
   const ports = nameports(portCircles, texts, warnings, mpu);
-  let portGrid: SpatialGrid | null = null;
+  let portGrid: StaticGrid | null = null;
   if (ports.length > 0) {
-    const maxR = Math.max(...ports.map((p) => p.r));
-    portGrid = new SpatialGrid(Math.max(maxR * 4, snap * 4, 1e-300));
-    ports.forEach((p, i) => portGrid!.insert(i, p.cx - p.r - snap, p.cy - p.r - snap, p.cx + p.r + snap, p.cy + p.r + snap));
+    const maxR = ports.reduce((m, p) => Math.max(m, p.r), 0);
+    const boxes = new Float64Array(ports.length * 4);
+    ports.forEach((p, i) => boxes.set([p.cx - p.r - snap, p.cy - p.r - snap, p.cx + p.r + snap, p.cy + p.r + snap], 4 * i));
+    portGrid = new StaticGrid(Math.max(maxR * 4, snap * 4, 1e-300), boxes);
   }
   const trimmed: Work[] = [];
   for (const w of works) {
@@ -440,9 +442,10 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
 
   stage("ports and trimming");
   // T-junctions and crossings.
-  const grid = new SpatialGrid(chooseCellSize(trimmed, snap));
-  trimmed.forEach((w, i) => grid.insert(i, w.box[0], w.box[1], w.box[2], w.box[3]));
-  const splits = findSplits(trimmed, grid, snap);
+  const boxes = new Float64Array(trimmed.length * 4);
+  trimmed.forEach((w, i) => boxes.set(w.box, 4 * i));
+  const grid = new StaticGrid(chooseCellSize(trimmed, snap), boxes);
+  const splits = findSplits(trimmed, chooseCellSize(trimmed, snap), snap);
   stage("crossings and T-junctions");
   const pieces: Work[] = [];
   trimmed.forEach((w, i) => {
@@ -474,33 +477,14 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     endX[2 * i] = s.x; endY[2 * i] = s.y;
     endX[2 * i + 1] = e.x; endY[2 * i + 1] = e.y;
   });
-  // Endpoints hashed into snap-sized cells (a chained hash: head per cell, next per end); each end looks in its 3 × 3 cells.
-  {
-    const inv = 1 / Math.max(snap, 1e-300);
-    const head = new Map<number, number>();
-    const next = new Int32Array(nEnds).fill(-1);
-    const cellKey = (ix: number, iy: number) => (Math.max(-33554432, Math.min(33554431, ix)) + 33554432) * 67108864 + Math.max(-33554432, Math.min(33554431, iy)) + 33554432;
-    for (let k = 0; k < nEnds; k++) {
-      const ix = Math.floor(endX[k] * inv);
-      const iy = Math.floor(endY[k] * inv);
-      for (let dx = -1; dx <= 1; dx++) {
-        for (let dy = -1; dy <= 1; dy++) {
-          for (let o = head.get(cellKey(ix + dx, iy + dy)) ?? -1; o !== -1; o = next[o]) {
-            if (Math.hypot(endX[o] - endX[k], endY[o] - endY[k]) <= snap) uf.union(o, k);
-          }
-        }
-      }
-      const key = cellKey(ix, iy);
-      next[k] = head.get(key) ?? -1;
-      head.set(key, k);
-    }
-  }
+  joinNearPoints(endX, endY, snap, (a, b) => uf.union(a, b));
   if (portGrid) {
+    const near: number[] = [];
     for (let k = 0; k < nEnds; k++) {
-      portGrid.query(endX[k], endY[k], endX[k], endY[k], (pi) => {
+      for (const pi of portGrid.queryInto(endX[k], endY[k], endX[k], endY[k], near)) {
         const p = ports[pi];
         if (Math.hypot(endX[k] - p.cx, endY[k] - p.cy) <= p.r + snap) uf.union(k, nEnds + pi);
-      });
+      }
     }
   }
   const portOfRoot = new Map<number, number>();
@@ -551,35 +535,44 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   if (dupPairs.size > MAX_LISTED_WARNINGS) warnings.push({ code: "duplicate_merged", message: `${dupPairs.size - MAX_LISTED_WARNINGS} more duplicated channels were counted once.` });
 
   stage("duplicates");
-  // Graph: incident piece ends per node root.
-  const incident = new Map<number, number[]>();
-  pieces.forEach((_, i) => {
-    if (!keep[i]) return;
-    for (const k of [2 * i, 2 * i + 1]) {
+  // Graph in compressed form: for every node root, the piece ends incident to it (ends 2i, 2i+1 of piece i).
+  const nAll = nEnds + ports.length;
+  const rootOf = new Int32Array(nEnds).fill(-1);
+  const degree = new Int32Array(nAll);
+  for (let i = 0; i < pieces.length; i++) {
+    if (!keep[i]) continue;
+    for (let k = 2 * i; k <= 2 * i + 1; k++) {
       const r = uf.find(k);
-      const list = incident.get(r);
-      if (list) list.push(k);
-      else incident.set(r, [k]);
+      rootOf[k] = r;
+      degree[r]++;
     }
-  });
+  }
+  const offset = new Int32Array(nAll + 1);
+  for (let r = 0; r < nAll; r++) offset[r + 1] = offset[r] + degree[r];
+  const fill = offset.slice(0, nAll);
+  const endsAt = new Int32Array(offset[nAll]);
+  for (let k = 0; k < nEnds; k++) if (rootOf[k] >= 0) endsAt[fill[rootOf[k]]++] = k;
+  const firstEnd = (r: number) => endsAt[offset[r]];
 
   // Connected components; keep those that reach a port.
-  const comp = new Map<number, number>();
+  const comp = new Int32Array(nAll).fill(-1);
   const compHasPort: boolean[] = [];
-  for (const root of incident.keys()) {
-    if (comp.has(root)) continue;
+  const stack = new Int32Array(nAll);
+  for (let root = 0; root < nAll; root++) {
+    if (degree[root] === 0 || comp[root] !== -1) continue;
     const id = compHasPort.length;
     let hasPort = false;
-    const stack = [root];
-    comp.set(root, id);
-    while (stack.length) {
-      const r = stack.pop()!;
+    let top = 0;
+    stack[top++] = root;
+    comp[root] = id;
+    while (top > 0) {
+      const r = stack[--top];
       if (portOfRoot.has(r)) hasPort = true;
-      for (const k of incident.get(r)!) {
-        const other = uf.find(k ^ 1);
-        if (!comp.has(other)) {
-          comp.set(other, id);
-          stack.push(other);
+      for (let e = offset[r]; e < offset[r + 1]; e++) {
+        const other = rootOf[endsAt[e] ^ 1];
+        if (comp[other] === -1) {
+          comp[other] = id;
+          stack[top++] = other;
         }
       }
     }
@@ -598,45 +591,46 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   if (!compHasPort.some(Boolean)) {
     throw layoutError("nothing_connected", `No channel reaches any of the ${ports.length} port circle(s): check that channel ends lie inside the port circles (or within ${fmt(snapM * 1e6)} µm of them).`, plan);
   }
-  const dropped = new Set<number>();
-  compHasPort.forEach((has, id) => { if (!has) dropped.add(id); });
-  if (dropped.size > 0) {
-    let n = 0;
-    const firstAt = new Map<number, { x: number; y: number }>();
-    for (const [root, id] of comp) if (dropped.has(id) && !firstAt.has(id)) firstAt.set(id, { x: endX[incident.get(root)![0]], y: endY[incident.get(root)![0]] });
-    for (const p of firstAt.values()) {
-      if (n++ >= MAX_LISTED_WARNINGS) break;
-      warnings.push({ code: "unconnected_channels", message: "Channels here connect to no port and were left out of the network. Connect them or move them to another layer.", at: at(p.x, p.y) });
+  const isDropped = (r: number) => comp[r] === -1 || !compHasPort[comp[r]];
+  {
+    const warned = new Set<number>();
+    for (let r = 0; r < nAll && warned.size < MAX_LISTED_WARNINGS; r++) {
+      if (degree[r] === 0 || compHasPort[comp[r]] || warned.has(comp[r])) continue;
+      warned.add(comp[r]);
+      const k = firstEnd(r);
+      warnings.push({ code: "unconnected_channels", message: "Channels here connect to no port and were left out of the network. Connect them or move them to another layer.", at: at(endX[k], endY[k]) });
     }
   }
   for (const [pi, port] of ports.entries()) {
     const root = uf.find(nEnds + pi);
-    if (portOfRoot.get(root) === pi && !incident.has(root)) {
+    if (portOfRoot.get(root) === pi && degree[root] === 0) {
       warnings.push({ code: "port_unconnected", message: `Port ${port.name} touches no channel; it is left out of the network.`, at: at(port.cx, port.cy) });
     }
   }
 
   stage("graph and components");
-  // Node kinds.
+  // Node kinds: 0 pass-through (no node), else an index into KINDS.
+  const KINDS: NodeKind[] = ["port", "port", "junction", "dead_end", "change"];
   const widthCache = pieces.map((w) => widthsOf(w, mpu));
   const endWidth = (k: number) => widthCache[k >> 1][k & 1];
-  const nodeKind = new Map<number, NodeKind | null>();
-  for (const [root, ends] of incident) {
-    if (dropped.has(comp.get(root)!)) continue;
-    let kind: NodeKind | null;
-    if (portOfRoot.has(root)) kind = "port";
-    else if (ends.length >= 3) kind = "junction";
-    else if (ends.length === 1) kind = "dead_end";
+  const kindOf = new Int8Array(nAll);
+  const stops: number[] = [];
+  for (let root = 0; root < nAll; root++) {
+    const d = degree[root];
+    if (d === 0 || isDropped(root)) continue;
+    let kind = 0;
+    if (portOfRoot.has(root)) kind = 1;
+    else if (d >= 3) kind = 2;
+    else if (d === 1) kind = 3;
     else {
-      const [a, b] = ends;
-      const la = pieces[a >> 1].layer;
-      const lb = pieces[b >> 1].layer;
+      const a = endsAt[offset[root]];
+      const b = endsAt[offset[root] + 1];
       const wa = endWidth(a);
       const wb = endWidth(b);
-      const change = la !== lb || Math.abs(wa - wb) > 1e-6 * Math.max(wa, wb);
-      kind = change ? "change" : null;
+      if (pieces[a >> 1].layer !== pieces[b >> 1].layer || Math.abs(wa - wb) > 1e-6 * Math.max(wa, wb)) kind = 4;
     }
-    nodeKind.set(root, kind);
+    kindOf[root] = kind;
+    if (kind > 0) stops.push(root);
   }
 
   stage("node kinds");
@@ -651,44 +645,52 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     const pi = portOfRoot.get(root);
     if (pi !== undefined) nodes.push({ id, xM: ports[pi].cx * mpu, yM: ports[pi].cy * mpu, kind: "port", port: ports[pi].name });
     else {
-      const k = incident.get(root)![0];
-      nodes.push({ id, xM: endX[k] * mpu, yM: endY[k] * mpu, kind: nodeKind.get(root) as NodeKind, port: null });
+      const k = firstEnd(root);
+      nodes.push({ id, xM: endX[k] * mpu, yM: endY[k] * mpu, kind: KINDS[kindOf[root]], port: null });
     }
     return id;
   };
-  const stops = [...nodeKind.entries()].filter(([, k]) => k !== null).map(([r]) => r);
+  // Ports first (in port order), then other nodes by x then y: stable numbering.
   stops.sort((a, b) => {
     const pa = portOfRoot.get(a);
     const pb = portOfRoot.get(b);
     if (pa !== undefined || pb !== undefined) return (pa ?? Infinity) - (pb ?? Infinity);
-    return endX[incident.get(a)![0]] - endX[incident.get(b)![0]] || endY[incident.get(a)![0]] - endY[incident.get(b)![0]];
+    return endX[firstEnd(a)] - endX[firstEnd(b)] || endY[firstEnd(a)] - endY[firstEnd(b)];
   });
   const usedPiece = new Uint8Array(pieces.length);
   const segments: NetworkSegment[] = [];
+  const chain: { w: Work; fwd: boolean }[] = [];
   for (const start of stops) {
-    for (const k0 of incident.get(start)!) {
+    for (let e0 = offset[start]; e0 < offset[start + 1]; e0++) {
+      const k0 = endsAt[e0];
       if (usedPiece[k0 >> 1]) continue;
-      const chain: { w: Work; fwd: boolean }[] = [];
+      chain.length = 0;
       let k = k0;
       let endRoot = start;
       for (;;) {
         const i = k >> 1;
         usedPiece[i] = 1;
         chain.push({ w: pieces[i], fwd: (k & 1) === 0 });
-        endRoot = uf.find(k ^ 1);
-        if (nodeKind.get(endRoot) !== null) break;
-        const next = incident.get(endRoot)!.find((e) => e >> 1 !== i && !usedPiece[e >> 1]);
-        if (next === undefined) break;
+        endRoot = rootOf[k ^ 1];
+        if (kindOf[endRoot] !== 0) break;
+        let next = -1;
+        for (let e = offset[endRoot]; e < offset[endRoot + 1]; e++) {
+          const cand = endsAt[e];
+          if (cand >> 1 !== i && !usedPiece[cand >> 1]) {
+            next = cand;
+            break;
+          }
+        }
+        if (next === -1) break;
         k = next;
       }
       segments.push(makeSegment(`s${segments.length + 1}`, nodeOf(start), nodeOf(endRoot), chain, mpu, widthsOf));
     }
   }
   stage("segments");
-  // Keep node numbering stable: ports first as walked, then the rest in walk order.
   const networkPorts: NetworkPort[] = [];
   for (const [root, pi] of portOfRoot) {
-    if (!incident.has(root)) continue;
+    if (degree[root] === 0) continue;
     const id = nodeOf(root);
     networkPorts.push({ name: ports[pi].name, node: id, xM: ports[pi].cx * mpu, yM: ports[pi].cy * mpu, radiusM: ports[pi].r * mpu });
   }

@@ -15,7 +15,10 @@ const TAU = 2 * Math.PI;
 
 /** Length of a line (Euclid) or an arc (r·|sweep|). */
 export function pieceLength(p: Piece): number {
-  return p.kind === "line" ? Math.hypot(p.x1 - p.x0, p.y1 - p.y0) : p.r * Math.abs(p.sweep);
+  if (p.kind === "arc") return p.r * Math.abs(p.sweep);
+  const dx = p.x1 - p.x0;
+  const dy = p.y1 - p.y0;
+  return Math.sqrt(dx * dx + dy * dy);
 }
 
 /** Point at length fraction t ∈ [0, 1]. */
