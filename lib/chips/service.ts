@@ -252,3 +252,19 @@ export async function listRevisionHistory(ctx: MemberContext, chipId: number) {
     })),
   );
 }
+
+/**
+ * The port names of a mapped revision, for the operating point form: from its
+ * latest successful analysis when there is one, else by reading the network
+ * with the layer map (geometry only). Empty when the layout has no ports.
+ */
+export async function listRevisionPorts(ctx: MemberContext, revisionId: number, storageKey: string, mapping: LayerMapInput): Promise<string[]> {
+  const latest = await q.getLatestAnalysisIdForRevision(ctx.scope, revisionId);
+  if (latest !== null) {
+    const a = await q.getAnalysis(ctx.scope, latest);
+    const ports = (a?.result as AnalyzeJson | null)?.ports;
+    if (ports && ports.length > 0) return ports.map((p) => p.name);
+  }
+  const result = analyzeLayout(await readRevisionFile(storageKey), mapping);
+  return result.ports.map((p) => p.name);
+}
