@@ -7,8 +7,8 @@ type Props = {
   action: (prev: ActionState, form: FormData) => Promise<ActionState>;
   submitLabel: string;
   busyLabel?: string;
-  /** Renders the fields, given the per-field errors of the last attempt. */
-  children: (fieldErrors: Record<string, string>) => ReactNode;
+  /** Renders the fields, given the per-field errors and the (non-secret) values of the last failed attempt. */
+  children: (fieldErrors: Record<string, string>, values: Record<string, string | string[]>) => ReactNode;
   className?: string;
   submitClassName?: string;
 };
@@ -23,7 +23,7 @@ export function ActionForm({ action, submitLabel, busyLabel, children, className
           <Notice tone={state.status === "ok" ? "success" : "error"}>{state.message}</Notice>
         </div>
       ) : null}
-      {children(state.fieldErrors ?? {})}
+      {children(state.fieldErrors ?? {}, state.values ?? {})}
       <button type="submit" className={submitClassName} disabled={pending}>
         {pending ? (busyLabel ?? "Working…") : submitLabel}
       </button>

@@ -6,7 +6,9 @@ import { ActionForm } from "./action-form";
 export function RequestResetForm() {
   return (
     <ActionForm action={requestResetAction} submitLabel="Send reset link" busyLabel="Sending…">
-      {(errors) => <Field label="E-mail" name="email" type="email" autoComplete="username" required maxLength={254} error={errors.email} />}
+      {(errors, values) => (
+        <Field label="E-mail" name="email" type="email" autoComplete="username" required maxLength={254} error={errors.email} defaultValue={typeof values.email === "string" ? values.email : undefined} />
+      )}
     </ActionForm>
   );
 }

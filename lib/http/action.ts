@@ -14,7 +14,22 @@ export type ActionState = {
   status: "idle" | "ok" | "error";
   message?: string;
   fieldErrors?: Record<string, string>;
+  /** What was submitted (secrets left out), so a failed form can show it again. */
+  values?: Record<string, string | string[]>;
 };
+
+const SECRET_FIELD = /password|confirm|token|secret/i;
+
+/** Submitted text fields minus secrets, for redisplay after an error. */
+export function echoValues(input: Record<string, unknown>): Record<string, string | string[]> {
+  const out: Record<string, string | string[]> = {};
+  for (const [k, v] of Object.entries(input)) {
+    if (SECRET_FIELD.test(k)) continue;
+    if (typeof v === "string") out[k] = v.slice(0, 1000);
+    else if (Array.isArray(v)) out[k] = v.filter((x): x is string => typeof x === "string").map((x) => x.slice(0, 1000));
+  }
+  return out;
+}
 
 export const idleState: ActionState = { status: "idle" };
 
@@ -42,19 +57,21 @@ export function formAction<S extends z.ZodType>(
   run: (input: z.output<S>) => Promise<string | void>,
 ): (prev: ActionState, form: FormData) => Promise<ActionState> {
   return async (_prev, form) => {
+    const raw = formDataToObject(form);
     try {
-      const parsed = schema.safeParse(formDataToObject(form));
+      const parsed = schema.safeParse(raw);
       if (!parsed.success) {
         const { message, fields } = describeZodError(parsed.error);
-        return { status: "error", message: Object.keys(fields).length > 1 ? "Some fields need attention." : message, fieldErrors: fields };
+        const onlyForm = Object.keys(fields).every((k) => k === "_");
+        return { status: "error", message: onlyForm ? message : "Some fields need attention; see the messages below them.", fieldErrors: fields, values: echoValues(raw) };
       }
       const message = await run(parsed.data);
       return { status: "ok", message: message ?? "Saved." };
     } catch (err) {
       unstable_rethrow(err);
-      if (err instanceof DomainError) return { status: "error", message: err.message };
+      if (err instanceof DomainError) return { status: "error", message: err.message, values: echoValues(raw) };
       console.error("Unexpected error in a server action:", err);
-      return { status: "error", message: "Something went wrong on our side. Try again; if it keeps happening, tell your admin." };
+      return { status: "error", message: "Something went wrong on our side. Try again; if it keeps happening, tell your admin.", values: echoValues(raw) };
     }
   };
 }

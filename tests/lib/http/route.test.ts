@@ -56,6 +56,15 @@ describe("formAction()", () => {
     expect(state).toMatchObject({ status: "error", fieldErrors: { email: "Enter a valid e-mail." } });
   });
 
+  it("echoes what was submitted after a failure, but never passwords or tokens", async () => {
+    const f = new FormData();
+    f.set("email", "nope");
+    f.set("password", "hunter2-secret");
+    f.set("token", "abc");
+    const state = await action({ status: "idle" }, f);
+    expect(state.values).toEqual({ email: "nope" });
+  });
+
   it("collects repeated name[] fields into arrays", async () => {
     const f = new FormData();
     f.set("email", "a@b.test");
