@@ -123,7 +123,7 @@ export function ChipDrawing(props: ChipDrawingProps) {
 
   // Canvas mode: paint channels batched by colour and width (batches rebuilt only when colours change).
   // eslint-disable-next-line react-hooks/exhaustive-deps
-  const batches = useMemo(() => (useCanvas ? canvasBatches(analysis.segments, colourOf) : []), [useCanvas, analysis, colourKey]);
+  const batches = useMemo(() => (useCanvas && typeof Path2D !== "undefined" ? canvasBatches(analysis.segments, colourOf) : []), [useCanvas, analysis, colourKey]);
   useEffect(() => {
     if (!useCanvas || !size || t === zoomIdentity) return;
     const canvas = canvasRef.current;

@@ -20,9 +20,10 @@ const DRIVE_WORDS: Record<string, string> = { flow: "set flow", pressure: "set p
 
 export function PortSummary({ analysis, limits, pressure, flow }: PortSummaryProps) {
   const titleId = useId();
-  const pressureFlags = analysis.flags.filter((f) => f.family === "pressure" && typeof f.threshold === "number");
-  const pumpMax = limits.pumpMaxPa;
-  const processMax = limits.processMaxPa ?? pressureFlags.find((f) => f.target.kind === "chip" || f.target.kind === "port")?.threshold ?? undefined;
+  // Limits given by the page win; otherwise the pressure rules' flags carry them (lib/rules: pump_pressure_max, pressure_bond).
+  const carried = (code: string) => analysis.flags.find((f) => f.code === code && typeof f.threshold === "number")?.threshold ?? undefined;
+  const pumpMax = limits.pumpMaxPa ?? carried("pump_pressure_max");
+  const processMax = limits.processMaxPa ?? carried("pressure_bond");
   const scaleMax = Math.max(1, pumpMax ?? 0, processMax ?? 0, ...analysis.ports.map((p) => Math.abs(p.pressure_Pa ?? 0))) * 1.05;
 
   return (
