@@ -58,6 +58,8 @@ export interface ChipDrawingProps {
 
 const ZOOM_STEP = 1.4;
 const PAN_STEP_PX = 60;
+/** Room kept free on the right for the zoom buttons when fitting. */
+const BUTTON_GUTTER_PX = 44;
 
 export function ChipDrawing(props: ChipDrawingProps) {
   const { analysis, colourOf, colourKey, selectedId, onSelect, markers, overlay, describe, label, describedBy, onReady } = props;
@@ -100,7 +102,7 @@ export function ChipDrawing(props: ChipDrawingProps) {
     const el = hostRef.current;
     const z = zoomRef.current;
     if (!el || !z || !size) return;
-    const f = fitTransform(box, size.w, size.h);
+    const f = fitTransform(box, size.w - BUTTON_GUTTER_PX, size.h);
     select(el).call(z.transform, zoomIdentity.translate(f.x, f.y).scale(f.k));
   }, [box, size]);
 
@@ -108,7 +110,7 @@ export function ChipDrawing(props: ChipDrawingProps) {
   useEffect(() => {
     const el = hostRef.current;
     if (!el || !size) return;
-    const f = fitTransform(box, size.w, size.h);
+    const f = fitTransform(box, size.w - BUTTON_GUTTER_PX, size.h);
     const z = d3zoom<HTMLDivElement, unknown>()
       .scaleExtent([f.k / 4, f.k * 400])
       .on("zoom", (event: { transform: ZoomTransform }) => setT(event.transform));
@@ -266,19 +268,16 @@ export function ChipDrawing(props: ChipDrawingProps) {
                 </g>
               )}
             </g>
-            {markers.map((m) => {
-              const [x, y] = t.apply(toDrawing(m.xM, m.yM));
-              return (
-                <g key={m.key} transform={`translate(${x},${y - 9})`} data-flag={m.severity}>
-                  <FlagShape severity={m.severity} size={11} />
-                </g>
-              );
-            })}
+            {placeMarkers(markers, t).map(({ m, x, y }) => (
+              <g key={m.key} transform={`translate(${x},${y})`} data-flag={m.severity}>
+                <FlagShape severity={m.severity} size={11} />
+              </g>
+            ))}
             {analysis.ports.map((p) => {
               const [x, y] = t.apply(toDrawing(p.x_m, p.y_m));
               const r = Math.max(p.radius_m * UM_PER_M * t.k, 4);
               return (
-                <text key={p.name} x={x + r + 4} y={y + 4} className="fill-ink-900 font-mono text-[12px] font-semibold" stroke="#ffffff" strokeWidth={3} paintOrder="stroke">
+                <text key={p.name} x={x} y={y - r - 5} textAnchor="middle" className="fill-ink-900 font-mono text-[12px] font-semibold" stroke="#ffffff" strokeWidth={3} paintOrder="stroke">
                   {p.name}
                 </text>
               );
@@ -353,6 +352,30 @@ function canvasBatches(segments: AnalyzeSegmentJson[], colourOf: (id: string) =>
     });
   }
   return [...batches.values()];
+}
+
+const SEVERITY_RANK: Record<Severity, number> = { info: 0, warn: 1, block: 2 };
+
+/**
+ * Screen positions of the flag markers, 9 px above their point; markers that
+ * would fall on the same spot are set side by side, the most severe first.
+ */
+function placeMarkers(markers: FlagMarker[], t: ZoomTransform): { m: FlagMarker; x: number; y: number }[] {
+  const spots = new Map<string, FlagMarker[]>();
+  for (const m of markers) {
+    const [x, y] = t.apply(toDrawing(m.xM, m.yM));
+    const key = `${Math.round(x / 8)},${Math.round(y / 8)}`;
+    const list = spots.get(key) ?? [];
+    list.push(m);
+    spots.set(key, list);
+  }
+  const out: { m: FlagMarker; x: number; y: number }[] = [];
+  for (const list of spots.values()) {
+    list.sort((a, b) => SEVERITY_RANK[b.severity] - SEVERITY_RANK[a.severity]);
+    const [x0, y0] = t.apply(toDrawing(list[0].xM, list[0].yM));
+    list.forEach((m, i) => out.push({ m, x: x0 + (i - (list.length - 1) / 2) * 14, y: y0 - 9 }));
+  }
+  return out;
 }
 
 /** A scale bar with a round length (1-2-5 steps) about 100 px long. */
