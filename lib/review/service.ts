@@ -140,16 +140,32 @@ function isBusy(err: unknown): boolean {
   return [code, cause].some((c) => typeof c === "string" && c.startsWith("SQLITE_BUSY"));
 }
 
-/** Runs a write transaction, retrying briefly while another writer holds SQLite's lock. */
-async function writeTransaction<T>(work: Parameters<ReturnType<typeof getDb>["transaction"]>[0] extends (tx: infer X) => Promise<unknown> ? (tx: X) => Promise<T> : never): Promise<T> {
-  for (let attempt = 0; ; attempt++) {
-    try {
-      return await getDb().transaction(work);
-    } catch (err) {
-      if (!isBusy(err) || attempt >= 20) throw err;
-      await new Promise((r) => setTimeout(r, 25 + Math.random() * 50));
+type TxWork<T> = Parameters<ReturnType<typeof getDb>["transaction"]>[0] extends (tx: infer X) => Promise<unknown> ? (tx: X) => Promise<T> : never;
+
+/** Review writes of this process, one at a time (see writeTransaction). */
+let writeQueue: Promise<unknown> = Promise.resolve();
+
+/**
+ * Runs a write transaction. Within one server process review writes queue up
+ * behind each other, because SQLite allows one writer and libSQL's embedded
+ * client answers a second concurrent BEGIN with SQLITE_BUSY; across processes
+ * a busy database is retried briefly. Either way the compare-and-set inside
+ * decides who wins.
+ */
+async function writeTransaction<T>(work: TxWork<T>): Promise<T> {
+  const run = async (): Promise<T> => {
+    for (let attempt = 0; ; attempt++) {
+      try {
+        return await getDb().transaction(work);
+      } catch (err) {
+        if (!isBusy(err) || attempt >= 20) throw err;
+        await new Promise((r) => setTimeout(r, 25 + Math.random() * 50));
+      }
     }
-  }
+  };
+  const result = writeQueue.then(run, run);
+  writeQueue = result.catch(() => undefined);
+  return result;
 }
 
 export type StepOutcome = {
