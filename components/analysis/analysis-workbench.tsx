@@ -37,7 +37,9 @@ export function AnalysisWorkbench(props: AnalysisWorkbenchProps) {
   const [units, setUnits] = useState<UnitPreferences>(props.units ?? {});
   const [quantityKey, setQuantityKey] = useState<QuantityKey>("pressure");
   const [scheme, setScheme] = useState<ColourScheme>("viridis");
-  const [selectedId, setSelectedId] = useState<string | null>(null);
+  const [selectedId, setSelectedId] = useState<string | null>(() =>
+    props.initialSegmentId && analysis.segments.some((s) => s.id === props.initialSegmentId) ? props.initialSegmentId : null,
+  );
   const [showOverlay, setShowOverlay] = useState(true);
   const [, startSaving] = useTransition();
 

@@ -47,8 +47,10 @@ export interface AnalysisWorkbenchProps {
   closeCompareHref?: string;
   /** Server action that stores a changed unit preference for the user. */
   saveUnitsAction?: (units: UnitPreferences) => Promise<void>;
-  /** Where to export: the file name stem for CSV downloads. */
+  /** File name stem for CSV downloads, e.g. "bb-204-rev-b". */
   exportName?: string;
+  /** Segment selected when the page opens (e.g. from ?segment=s7 or a flag's link). */
+  initialSegmentId?: string | null;
 }
 
 /** The shared selection: one segment (or port) at a time. */
