@@ -268,3 +268,21 @@ export async function listRevisionPorts(ctx: MemberContext, revisionId: number, 
   const result = analyzeLayout(await readRevisionFile(storageKey), mapping);
   return result.ports.map((p) => p.name);
 }
+
+/** What a failed analysis's error code asks the designer to change, in plain words (the message says what went wrong). */
+export function adviceForFailure(code: string | null): string {
+  switch (code) {
+    case "unknown_fluid":
+    case "unknown_process":
+    case "invalid_quantity":
+    case "invalid_conditions":
+      return "Change the operating point: add a new one with the value corrected (this one stays on record as it was).";
+    case "contradictory_ports":
+    case "dangling_port":
+    case "dangling_segment":
+    case "singular_network":
+      return "Drive at least one port of every connected part of the chip by pressure (an outlet at 0 mbar is usual), or check that the channels really connect to the ports.";
+    default:
+      return "Check the operating point's values and the layer mapping; add a new operating point with the values corrected, or upload a corrected layout as a new revision.";
+  }
+}
