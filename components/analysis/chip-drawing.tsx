@@ -411,7 +411,8 @@ export function flagMarkers(analysis: AnalyzeJson): FlagMarker[] {
       at ??= midpointM(seg.get(f.target.id)!.path_m);
     } else if (f.target.kind === "port" && f.target.id && port.has(f.target.id)) {
       const p = port.get(f.target.id)!;
-      at ??= [p.x_m, p.y_m];
+      // On the port's right rim, clear of its label above.
+      at ??= [p.x_m + p.radius_m, p.y_m];
     } else if (f.target.kind === "node" && f.target.id && node.has(f.target.id)) {
       const n = node.get(f.target.id)!;
       at ??= [n.x_m, n.y_m];
