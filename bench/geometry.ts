@@ -6,8 +6,14 @@
  * dxf-parser parse of the same text, and the heap the result holds against the
  * file size. Targets (issue 3): ratio ≤ 1.5×, heap < 10× the file.
  */
+import v8 from "node:v8";
+import vm from "node:vm";
 import DxfParser from "dxf-parser";
 import { extractNetwork } from "../lib/network/extract";
+
+// A collectable heap for the memory figure, without a command-line flag.
+v8.setFlagsFromString("--expose-gc");
+const gc = vm.runInNewContext("gc") as () => void;
 
 const PITCH_UM = 400;
 
@@ -41,43 +47,60 @@ function median(xs: number[]): number {
   return s[Math.floor(s.length / 2)];
 }
 
-function time(fn: () => unknown, runs: number): number {
-  const t: number[] = [];
-  for (let k = 0; k < runs; k++) {
-    const t0 = performance.now();
-    fn();
-    t.push(performance.now() - t0);
-  }
-  return median(t);
-}
-
-const gc = (globalThis as { gc?: () => void }).gc;
-
 export async function run(): Promise<void> {
   const { text, entities } = syntheticGridDxf(102);
   const conditions = { layers: { FLOW: { role: "channel" as const, width: "100 um", depth: "50 um" }, PORTS: { role: "port" as const } } };
   const bytes = new TextEncoder().encode(text);
   const fileMiB = bytes.byteLength / 1048576;
 
-  // Warm up both paths (JIT), then take medians.
+  // Warm up both paths (JIT), then alternate them so machine load falls on both alike.
   new DxfParser().parseSync(text);
   const net = extractNetwork(bytes, conditions);
-  const parseMs = time(() => new DxfParser().parseSync(text), 5);
-  const extractMs = time(() => extractNetwork(bytes, conditions), 5);
+  const parseMs: number[] = [];
+  const extractMs: number[] = [];
+  const stageMs = new Map<string, number[]>();
+  for (let k = 0; k < 7; k++) {
+    let t0 = performance.now();
+    new DxfParser().parseSync(text);
+    parseMs.push(performance.now() - t0);
+    t0 = performance.now();
+    let prev = t0;
+    extractNetwork(bytes, conditions, {
+      onStage: (stage) => {
+        const t = performance.now();
+        (stageMs.get(stage) ?? stageMs.set(stage, []).get(stage)!).push(t - prev);
+        prev = t;
+      },
+    });
+    extractMs.push(performance.now() - t0);
+  }
 
-  gc?.();
+  // Memory: heap retained by the result, and the largest heap seen at a stage boundary during one extract;
+  // beside them, what the bare parse alone holds (its result is the DXF object).
+  gc();
+  const parseBefore = process.memoryUsage().heapUsed;
+  const parsed = new DxfParser().parseSync(text);
+  const parseHeldMiB = (process.memoryUsage().heapUsed - parseBefore) / 1048576;
+  if (!parsed) console.log("warning: bare parse returned nothing");
+  gc();
   const before = process.memoryUsage().heapUsed;
-  const kept = extractNetwork(bytes, conditions);
-  const after = process.memoryUsage().heapUsed;
-  const heapMiB = (after - before) / 1048576;
+  let peak = before;
+  const kept = extractNetwork(bytes, conditions, { onStage: () => { peak = Math.max(peak, process.memoryUsage().heapUsed); } });
+  gc();
+  const retainedMiB = (process.memoryUsage().heapUsed - before) / 1048576;
+  const peakMiB = (peak - before) / 1048576;
 
+  const p = median(parseMs);
+  const e = median(extractMs);
   console.log(`synthetic grid: ${entities.toLocaleString("en")} channel entities, ${fileMiB.toFixed(2)} MiB of DXF text`);
   console.log(`network: ${net.segments.length.toLocaleString("en")} segments, ${net.nodes.length.toLocaleString("en")} nodes, ${net.ports.length} ports`);
-  console.log(`bare dxf-parser parse : ${parseMs.toFixed(0)} ms (median of 5)`);
-  console.log(`whole extract path    : ${extractMs.toFixed(0)} ms (median of 5)`);
-  console.log(`ratio extract / parse : ${(extractMs / parseMs).toFixed(2)}× (target ≤ 1.5×)`);
-  console.log(
-    `heap held by one extract: ${heapMiB.toFixed(1)} MiB = ${(heapMiB / fileMiB).toFixed(1)}× the file (target < 10×)${gc ? "" : " — without --expose-gc the figure includes garbage not yet collected"}`,
-  );
+  console.log(`bare dxf-parser parse : ${p.toFixed(0)} ms (median of 7; best ${Math.min(...parseMs).toFixed(0)})`);
+  console.log(`whole extract path    : ${e.toFixed(0)} ms (median of 7; best ${Math.min(...extractMs).toFixed(0)})`);
+  console.log(`ratio extract / parse : ${(e / p).toFixed(2)}× (target ≤ 1.5×)`);
+  console.log("stages (median ms):");
+  for (const [stage, ms] of stageMs) console.log(`  ${median(ms).toFixed(1).padStart(7)}  ${stage}`);
+  console.log(`heap retained by the network: ${retainedMiB.toFixed(1)} MiB = ${(retainedMiB / fileMiB).toFixed(1)}× the file`);
+  console.log(`heap peak during one extract (at stage ends): ${peakMiB.toFixed(1)} MiB = ${(peakMiB / fileMiB).toFixed(1)}× the file (target < 10×)`);
+  console.log(`for scale, heap right after a bare dxf-parser parse (before any collection): ${parseHeldMiB.toFixed(1)} MiB = ${(parseHeldMiB / fileMiB).toFixed(1)}× the file`);
   if (kept.segments.length !== net.segments.length) console.log("warning: runs disagree");
 }

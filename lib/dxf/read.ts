@@ -74,7 +74,8 @@ export function decodeLayout(input: string | Uint8Array, maxBytes = MAX_LAYOUT_B
   if (startsWith(head, "AutoCAD Binary DXF")) {
     throw new LayoutError("binary_dxf", "This is a binary DXF. Export the layout as an ASCII DXF (R12, R2000 or later) and upload that.");
   }
-  if (startsWith(head, "AC10") || startsWith(head, "AC1.")) {
+  // DWG files open with their version string: AC1.2 … AC2.10 for the oldest, AC1001 … AC1032 since.
+  if (startsWith(head, "AC10") || startsWith(head, "AC1.") || startsWith(head, "AC2.")) {
     throw new LayoutError("dwg_file", "This is a DWG drawing, not a DXF. Save or export it as an ASCII DXF and upload that.");
   }
   const text = typeof input === "string" ? input : new TextDecoder("utf-8").decode(input);

@@ -178,8 +178,8 @@ function chooseCellSize(works: Work[], snap: number): number {
     minX = Math.min(minX, b[0]); minY = Math.min(minY, b[1]); maxX = Math.max(maxX, b[2]); maxY = Math.max(maxY, b[3]);
   }
   const extent = Math.max(maxX - minX, maxY - minY, snap * 4, 1e-300);
-  // Twice the mean piece size: most pieces then touch one to four cells.
-  return Math.max((2 * sum) / works.length, extent / 2048, snap * 4, extent * 1e-9);
+  // The mean piece size: most pieces then touch one to four cells.
+  return Math.max(sum / works.length, extent / 2048, snap * 4, extent * 1e-9);
 }
 
 /** Split parameters for every piece: T-junctions and crossings. Lines (the common case) are handled inline, without allocation. */
@@ -442,9 +442,6 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
 
   stage("ports and trimming");
   // T-junctions and crossings.
-  const boxes = new Float64Array(trimmed.length * 4);
-  trimmed.forEach((w, i) => boxes.set(w.box, 4 * i));
-  const grid = new StaticGrid(chooseCellSize(trimmed, snap), boxes);
   const splits = findSplits(trimmed, chooseCellSize(trimmed, snap), snap);
   stage("crossings and T-junctions");
   const pieces: Work[] = [];
@@ -635,13 +632,12 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
 
   stage("node kinds");
   // Walk segments between stop nodes.
-  const nodeId = new Map<number, string>();
+  const nodeIndex = new Int32Array(nAll).fill(-1);
   const nodes: NetworkNode[] = [];
   const nodeOf = (root: number): string => {
-    let id = nodeId.get(root);
-    if (id) return id;
-    id = `n${nodes.length + 1}`;
-    nodeId.set(root, id);
+    if (nodeIndex[root] >= 0) return nodes[nodeIndex[root]].id;
+    const id = `n${nodes.length + 1}`;
+    nodeIndex[root] = nodes.length;
     const pi = portOfRoot.get(root);
     if (pi !== undefined) nodes.push({ id, xM: ports[pi].cx * mpu, yM: ports[pi].cy * mpu, kind: "port", port: ports[pi].name });
     else {
@@ -659,18 +655,21 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   });
   const usedPiece = new Uint8Array(pieces.length);
   const segments: NetworkSegment[] = [];
-  const chain: { w: Work; fwd: boolean }[] = [];
+  const chain: number[] = [];
+  const chainFwd: boolean[] = [];
   for (const start of stops) {
     for (let e0 = offset[start]; e0 < offset[start + 1]; e0++) {
       const k0 = endsAt[e0];
       if (usedPiece[k0 >> 1]) continue;
       chain.length = 0;
+      chainFwd.length = 0;
       let k = k0;
       let endRoot = start;
       for (;;) {
         const i = k >> 1;
         usedPiece[i] = 1;
-        chain.push({ w: pieces[i], fwd: (k & 1) === 0 });
+        chain.push(i);
+        chainFwd.push((k & 1) === 0);
         endRoot = rootOf[k ^ 1];
         if (kindOf[endRoot] !== 0) break;
         let next = -1;
@@ -684,7 +683,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
         if (next === -1) break;
         k = next;
       }
-      segments.push(makeSegment(`s${segments.length + 1}`, nodeOf(start), nodeOf(endRoot), chain, mpu, widthsOf));
+      segments.push(makeSegment(`s${segments.length + 1}`, nodeOf(start), nodeOf(endRoot), chain, chainFwd, pieces, widthCache, mpu));
     }
   }
   stage("segments");
@@ -720,11 +719,13 @@ function makeSegment(
   id: string,
   from: string,
   to: string,
-  chain: { w: Work; fwd: boolean }[],
+  chain: number[],
+  chainFwd: boolean[],
+  pieces: Work[],
+  widthCache: [number, number][],
   mpu: number,
-  widths: (w: Work, mpu: number) => [number, number],
 ): NetworkSegment {
-  const layer = chain[0].w.layer;
+  const layer = pieces[chain[0]].layer;
   const path: [number, number][] = [];
   let profile: WidthSample[] | null = null;
   let s = 0;
@@ -734,14 +735,19 @@ function makeSegment(
   let lastW = NaN;
   let minW = Infinity;
   let maxW = -Infinity;
-  for (const { w, fwd } of chain) {
+  for (let c = 0; c < chain.length; c++) {
+    const w = pieces[chain[c]];
+    const fwd = chainFwd[c];
     const p = w.p;
-    const [a, b] = widths(w, mpu);
+    const [a, b] = widthCache[chain[c]];
     const w0 = fwd ? a : b;
     const w1 = fwd ? b : a;
     if (path.length === 0) {
-      const st = pointAt(p, fwd ? 0 : 1);
-      path.push([st.x * mpu, st.y * mpu]);
+      if (p.kind === "line") path.push(fwd ? [p.x0 * mpu, p.y0 * mpu] : [p.x1 * mpu, p.y1 * mpu]);
+      else {
+        const st = pointAt(p, fwd ? 0 : 1);
+        path.push([st.x * mpu, st.y * mpu]);
+      }
       first = w0;
     }
     if (p.kind === "line") path.push(fwd ? [p.x1 * mpu, p.y1 * mpu] : [p.x0 * mpu, p.y0 * mpu]);
@@ -782,7 +788,8 @@ function makeSegment(
     depthM: layer.depthM as number,
     section: layer.section,
     minBendRadiusM: minR === null ? null : minR * mpu,
-    path,
+    // An exact-size copy: arrays grown by push keep spare capacity, which 20k short paths would hold on to.
+    path: path.slice(),
   };
   if (minW !== maxW) {
     seg.minWidthM = minW;

@@ -7,6 +7,11 @@
  */
 
 const INT_LIMIT = 2 ** 30;
+/**
+ * Cell boundaries sit at (k − 0.382)·cell, not at multiples of the cell: CAD coordinates are usually
+ * round numbers, and boxes that straddle boundaries cost extra cells and pair tests.
+ */
+const GRID_PHASE = 0.3819660112501051;
 const clampCell = (v: number) => (v < -INT_LIMIT ? -INT_LIMIT : v > INT_LIMIT ? INT_LIMIT : v);
 
 /** A set of integer cells (ix, iy) → dense slot numbers 0…n−1, by open addressing with linear probing. */
@@ -62,8 +67,8 @@ export class StaticGrid {
       total = 0;
       const inv = 1 / size;
       for (let i = 0; i < n; i++) {
-        const w = Math.floor(boxes[4 * i + 2] * inv) - Math.floor(boxes[4 * i] * inv) + 1;
-        const h = Math.floor(boxes[4 * i + 3] * inv) - Math.floor(boxes[4 * i + 1] * inv) + 1;
+        const w = Math.floor(boxes[4 * i + 2] * inv + GRID_PHASE) - Math.floor(boxes[4 * i] * inv + GRID_PHASE) + 1;
+        const h = Math.floor(boxes[4 * i + 3] * inv + GRID_PHASE) - Math.floor(boxes[4 * i + 1] * inv + GRID_PHASE) + 1;
         total += w * h;
       }
       if (total <= 16 * n + 4096) break;
@@ -92,10 +97,10 @@ export class StaticGrid {
 
   private range(minX: number, minY: number, maxX: number, maxY: number): [number, number, number, number] {
     return [
-      clampCell(Math.floor(minX * this.inv)),
-      clampCell(Math.floor(minY * this.inv)),
-      clampCell(Math.floor(maxX * this.inv)),
-      clampCell(Math.floor(maxY * this.inv)),
+      clampCell(Math.floor(minX * this.inv + GRID_PHASE)),
+      clampCell(Math.floor(minY * this.inv + GRID_PHASE)),
+      clampCell(Math.floor(maxX * this.inv + GRID_PHASE)),
+      clampCell(Math.floor(maxY * this.inv + GRID_PHASE)),
     ];
   }
 
@@ -115,8 +120,8 @@ export class StaticGrid {
           const b = this.items[v];
           const b4 = 4 * b;
           if (boxes[b4] > boxes[a4 + 2] || boxes[b4 + 2] < boxes[a4] || boxes[b4 + 1] > boxes[a4 + 3] || boxes[b4 + 3] < boxes[a4 + 1]) continue;
-          const cx = Math.floor(Math.max(boxes[a4], boxes[b4]) * this.inv);
-          const cy = Math.floor(Math.max(boxes[a4 + 1], boxes[b4 + 1]) * this.inv);
+          const cx = Math.floor(Math.max(boxes[a4], boxes[b4]) * this.inv + GRID_PHASE);
+          const cy = Math.floor(Math.max(boxes[a4 + 1], boxes[b4 + 1]) * this.inv + GRID_PHASE);
           if (this.hash.slot(clampCell(cx), clampCell(cy), false) !== c) continue;
           if (a < b) fn(a, b);
           else fn(b, a);
@@ -128,10 +133,10 @@ export class StaticGrid {
   /** Collect into `out` (cleared first) the items whose cells meet the box; an item may repeat. */
   queryInto(minX: number, minY: number, maxX: number, maxY: number, out: number[]): number[] {
     out.length = 0;
-    const x0 = clampCell(Math.floor(minX * this.inv));
-    const x1 = clampCell(Math.floor(maxX * this.inv));
-    const y0 = clampCell(Math.floor(minY * this.inv));
-    const y1 = clampCell(Math.floor(maxY * this.inv));
+    const x0 = clampCell(Math.floor(minX * this.inv + GRID_PHASE));
+    const x1 = clampCell(Math.floor(maxX * this.inv + GRID_PHASE));
+    const y0 = clampCell(Math.floor(minY * this.inv + GRID_PHASE));
+    const y1 = clampCell(Math.floor(maxY * this.inv + GRID_PHASE));
     for (let ix = x0; ix <= x1; ix++) {
       for (let iy = y0; iy <= y1; iy++) {
         const s = this.hash.slot(ix, iy, false);
@@ -156,8 +161,8 @@ export function joinNearPoints(xs: Float64Array, ys: Float64Array, tol: number, 
   const head = new Int32Array(n).fill(-1);
   const next = new Int32Array(n).fill(-1);
   for (let k = 0; k < n; k++) {
-    const fx = xs[k] * inv;
-    const fy = ys[k] * inv;
+    const fx = xs[k] * inv + GRID_PHASE;
+    const fy = ys[k] * inv + GRID_PHASE;
     const ix = clampCell(Math.floor(fx));
     const iy = clampCell(Math.floor(fy));
     const rx = (fx - ix) * cell;
