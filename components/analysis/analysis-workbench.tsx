@@ -187,11 +187,11 @@ export function AnalysisWorkbench(props: AnalysisWorkbenchProps) {
               "Hover a channel for its numbers; click it (or a row of the table) to select it."
             )}
           </p>
+          <CautionsPanel cautions={analysis.cautions} />
         </div>
         <div className="space-y-4 lg:col-span-4">
-          <CautionsPanel cautions={analysis.cautions} />
           <PortSummary analysis={analysis} limits={props.limits ?? {}} pressure={pressureView} flow={flowView} />
-          <FlagsList analysis={analysis} selectedId={selectedId} onSelect={select} />
+          <FlagsList analysis={analysis} selectedId={selectedId} onSelect={select} pressure={pressureView} length={{ unitLabel: field("width").unitLabel, toDisplay: field("width").toDisplay }} />
         </div>
       </div>
 

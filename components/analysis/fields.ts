@@ -65,12 +65,27 @@ function text(key: keyof AnalyzeSegmentJson, label: string): FieldView {
   return { key, label, short: label, unitLabel: "", header: label, kind: "text", value: (s) => String(s[key] ?? ""), toDisplay: (x) => x };
 }
 
+/** Short table headers where the catalogue's label is long; dimensionless groups use their symbol. A view choice. */
+const SHORT_HEADER: Partial<Record<QuantityKey, string>> = {
+  resistance: "Resistance",
+  flow: "Flow",
+  mean_velocity: "Velocity",
+  pressure_drop: "Δp",
+  hydraulic_diameter: "Dₕ",
+  min_bend_radius: "Bend radius",
+  wall_shear: "τw",
+  residence: "Residence",
+  diffusion_time: "Diffusion time",
+  mixing_length: "Mixing length",
+  entrance_length: "Entrance length",
+};
+
 function quantityField(def: QuantityDef, read: ReturnType<typeof createQuantityReader>, prefs: UnitPreferences): FieldView {
   const unitLabel = resolveUnit(def.family, prefs).label;
   return {
     key: def.key,
     label: def.label,
-    short: def.symbol,
+    short: SHORT_HEADER[def.key] ?? (def.family === "none" ? def.symbol : def.label),
     unitLabel,
     header: quantityHeader(def, prefs),
     kind: "number",

@@ -2,13 +2,26 @@
 /** The flags raised, grouped by severity; each one concerning a segment selects it. */
 import { useId } from "react";
 import type { AnalyzeJson } from "@/lib/analysis/serialize";
+import { RULES } from "@/lib/rules/registry";
 import { formatNumber } from "./fields";
 import { FlagIcon } from "./flag-marker";
 import { asSeverity, SEVERITY_LABEL, SEVERITY_ORDER } from "./types";
 
 const TONE = { block: "border-halt-600 bg-halt-100 text-halt-800", warn: "border-heed-600 bg-heed-100 text-heed-800", info: "border-note-600 bg-note-100 text-note-800" } as const;
 
-export function FlagsList({ analysis, selectedId, onSelect }: { analysis: AnalyzeJson; selectedId: string | null; onSelect: (segmentId: string) => void }) {
+type UnitView = { unitLabel: string; toDisplay: (si: number) => number };
+
+const RULE_UNIT = new Map(RULES.map((r) => [r.code, r.thresholdUnit]));
+
+/** A flag's value or threshold in the member's unit: pascals and metres are converted, other units are printed as the rule names them. */
+function withUnit(x: number, code: string, pressure: UnitView, length: UnitView): string {
+  const unit = RULE_UNIT.get(code) ?? "";
+  if (/^Pa\b/.test(unit)) return `${formatNumber(pressure.toDisplay(x))} ${pressure.unitLabel}`;
+  if (/^m\b/.test(unit)) return `${formatNumber(length.toDisplay(x))} ${length.unitLabel}`;
+  return formatNumber(x);
+}
+
+export function FlagsList({ analysis, selectedId, onSelect, pressure, length }: { analysis: AnalyzeJson; selectedId: string | null; onSelect: (segmentId: string) => void; pressure: UnitView; length: UnitView }) {
   const titleId = useId();
   const groups = SEVERITY_ORDER.map((s) => ({ severity: s, flags: analysis.flags.map((f, i) => ({ f, i })).filter(({ f }) => asSeverity(f.severity) === s) }));
   return (
@@ -44,9 +57,9 @@ export function FlagsList({ analysis, selectedId, onSelect }: { analysis: Analyz
                         <p className="text-ink-700">{f.message}</p>
                         {(f.value !== null || f.threshold !== null) && (
                           <p className="text-ink-600">
-                            {f.value !== null && <>value {formatNumber(f.value)}</>}
+                            {f.value !== null && <>value {withUnit(f.value, f.code, pressure, length)}</>}
                             {f.value !== null && f.threshold !== null && " · "}
-                            {f.threshold !== null && <>threshold {formatNumber(f.threshold)}</>}
+                            {f.threshold !== null && <>threshold {withUnit(f.threshold, f.code, pressure, length)}</>}
                             {f.source && <> · {f.source}</>}
                           </p>
                         )}
