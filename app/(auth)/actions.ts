@@ -1,6 +1,8 @@
 "use server";
+import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { z } from "zod";
+import { clientAddressFrom } from "@/lib/auth/credentials";
 import { acceptInvitation } from "@/lib/auth/invitations";
 import { newPasswordSchema } from "@/lib/auth/password";
 import { requestPasswordReset, resetPassword } from "@/lib/auth/password-reset";
@@ -42,6 +44,6 @@ const acceptSchema = z
   });
 
 export const acceptInvitationAction = formAction(acceptSchema, async ({ token, name, password }) => {
-  const { email } = await acceptInvitation(token, { name: name?.trim(), password });
+  const { email } = await acceptInvitation(token, { name: name?.trim(), password }, new Date(), clientAddressFrom(await headers()));
   redirect(`/sign-in?notice=joined&email=${encodeURIComponent(email)}`);
 });

@@ -20,6 +20,7 @@ import { sendMail } from "@/lib/mail";
 import { invitationMail } from "@/lib/mail/templates";
 import { ROLE_LABELS, type Role } from "./roles";
 import { hashPassword, newPasswordSchema, verifyPassword } from "./password";
+import { assertSignInAllowed, recordSignInAttempt } from "./rate-limit";
 import { createSecretToken, hashSecretToken } from "./tokens";
 
 export const INVITATION_LIFETIME_MS = 7 * 24 * 60 * 60 * 1000;
@@ -115,18 +116,24 @@ export async function getOpenInvitation(token: string, now = new Date()): Promis
  * Accepts an invitation. A new invitee gives a name and a new password; an
  * existing account proves itself with its current password. Creates the
  * account (if needed) and the membership in one transaction and records it.
- * Throws as getOpenInvitation, DomainError (400) for a missing name, and
- * DomainError (401) for a wrong current password.
+ * Throws as getOpenInvitation, DomainError (400) for a missing name or weak
+ * new password, DomainError (401) for a wrong current password, and
+ * RateLimitedError (429) when that account's sign-in throttle is exhausted.
  */
 export async function acceptInvitation(
   token: string,
   input: { name?: string; password: string },
   now = new Date(),
+  clientAddress = "unknown",
 ): Promise<{ userId: number; email: string; workspaceSlug: string }> {
   const inv = await getOpenInvitation(token, now);
   const existing = await getUserCredentialsByEmail(inv.email);
-  if (existing && !(await verifyPassword(input.password, existing.passwordHash))) {
-    throw new DomainError("wrong_password", "That is not the current password of this account. Enter the password you sign in with.", 401);
+  if (existing) {
+    // Confirming an existing account is a password check like sign-in, so it shares sign-in's throttle.
+    await assertSignInAllowed(inv.email, clientAddress, now);
+    const ok = await verifyPassword(input.password, existing.passwordHash);
+    await recordSignInAttempt(inv.email, clientAddress, ok, now);
+    if (!ok) throw new DomainError("wrong_password", "That is not the current password of this account. Enter the password you sign in with.", 401);
   }
   if (!existing && !input.name) throw new DomainError("invalid_input", "Enter your name.", 400);
   if (!existing) {

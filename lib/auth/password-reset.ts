@@ -1,6 +1,6 @@
 import "server-only";
 /** Password reset by e-mail link: expiring (1 hour), single-use tokens stored only as hashes. */
-import { and, eq, gt, isNull } from "drizzle-orm";
+import { and, count, eq, gt, isNull } from "drizzle-orm";
 import { getDb } from "@/db";
 import { passwordResetTokens, users } from "@/db/schema";
 import { insertAuditEvent } from "@/db/queries/audit";
@@ -15,9 +15,13 @@ import { createSecretToken, hashSecretToken } from "./tokens";
 /** One hour: OWASP Forgot Password Cheat Sheet advises short-lived reset tokens (from memory); common practice. */
 export const RESET_LIFETIME_MS = 60 * 60 * 1000;
 
+/** At most this many reset e-mails per account per hour (common practice: stops mail-bombing a colleague). */
+export const MAX_RESETS_PER_HOUR = 3;
+
 /**
  * Sends a reset link when the address belongs to an account; does nothing
  * otherwise, and the caller answers the same either way (no account probing).
+ * Past MAX_RESETS_PER_HOUR requests in the last hour it silently sends nothing more.
  */
 export async function requestPasswordReset(email: string, now = new Date()): Promise<void> {
   const db = getDb();
@@ -27,6 +31,11 @@ export async function requestPasswordReset(email: string, now = new Date()): Pro
     .where(eq(users.email, normaliseEmail(email)))
     .limit(1);
   if (!user) return;
+  const [recent] = await db
+    .select({ n: count() })
+    .from(passwordResetTokens)
+    .where(and(eq(passwordResetTokens.userId, user.id), gt(passwordResetTokens.createdAt, new Date(now.getTime() - 60 * 60 * 1000))));
+  if ((recent?.n ?? 0) >= MAX_RESETS_PER_HOUR) return;
   const { token, tokenHash } = createSecretToken();
   const expiresAt = new Date(now.getTime() + RESET_LIFETIME_MS);
   await db.insert(passwordResetTokens).values({ userId: user.id, tokenHash, expiresAt, createdAt: now });

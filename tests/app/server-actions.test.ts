@@ -4,6 +4,8 @@ import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 vi.mock("@/lib/auth/session", () => import("@/tests/support/fake-session"));
 // revalidatePath needs Next's request scope; here it only has to be callable.
 vi.mock("next/cache", () => ({ revalidatePath: vi.fn() }));
+// headers() too; the accept action reads the client address from it.
+vi.mock("next/headers", () => ({ headers: async () => new Headers({ "x-forwarded-for": "192.0.2.10" }) }));
 import { changeRolesAction, inviteAction, removeMemberAction, revokeInvitationAction } from "@/app/(workspace)/w/[workspace]/admin/actions";
 import { acceptInvitationAction, requestResetAction } from "@/app/(auth)/actions";
 import { listInvitations } from "@/db/queries/invitations";
