@@ -5,6 +5,7 @@
  */
 import type { NetworkSegment, SectionShape, WidthSample } from "../network/types";
 import { ConditionsError } from "../errors";
+import { SECTION_TABLE_ALPHA, SECTION_TABLE_X } from "./section-table";
 
 export interface SectionProperties {
   areaM2: number;
@@ -17,7 +18,7 @@ export interface SectionProperties {
   /** τ_w,max/(μQ), 1/m³: multiply by viscosity and flow for the wall shear in Pa. */
   wallShearFactorPerM3: number;
   /** How the resistance was obtained. */
-  method: "exact_series" | "exact" | "shape_factor";
+  method: "exact_series" | "exact" | "numerical_table" | "shape_factor";
   /** How the wall shear was obtained. */
   wallShearMethod: "exact_series" | "exact" | "equivalent_rectangle";
 }
@@ -125,12 +126,54 @@ const SEMICIRCLE_K = semicircleFlowConstant();
 /**
  * Mortensen, Okkels & Bruus, Phys. Rev. E 71, 057301 (2005): R ≈ α(C) μL/A² with C = P²/A,
  * linear fits α ≈ (22/7)C − 65/3 (rectangle-like sections) and α ≈ (25/17)C + 40√3/17 (triangles).
- * Measured against a numerical Poiseuille solve (tests/fixtures/networks/generate-sections.py): D profiles within
- * 1–5 %, KOH trapezoids with a floor within 6–11 % (too high), V-grooves within 0.5 %.
+ * Measured against a numerical Poiseuille solve (tests/fixtures/networks/generate-sections.py): D profiles off by
+ * up to 5 %, KOH trapezoids with a floor by 6–25 % (too high), V-grooves within 0.5 %. Kept as a cross-check
+ * (shapeFactorResistanceFactor); the engine uses the tabulated numerical solution below (≤ 0.05 %).
  */
 function mortensenAlpha(perimeterM: number, areaM2: number, family: "rectangle" | "triangle"): number {
   const c = (perimeterM * perimeterM) / areaM2;
   return family === "rectangle" ? (22 / 7) * c - 65 / 3 : (25 / 17) * c + (40 * Math.sqrt(3)) / 17;
+}
+
+/** Mortensen et al. (2005) shape-factor estimate R/(μL), 1/m⁴, for comparison with the tabulated values. */
+export function shapeFactorResistanceFactor(shape: "isotropic_etch" | "trapezoid_koh", topWidthM: number, depthM: number): number {
+  const s = shape === "isotropic_etch" ? isotropicEtchSection(topWidthM, depthM) : kohTrapezoidSection(topWidthM, depthM);
+  const floorless = shape === "trapezoid_koh" && depthM >= kohMaxDepthM(topWidthM) * (1 - 1e-9);
+  return mortensenAlpha(s.perimeterM, s.areaM2, floorless ? "triangle" : "rectangle") / (s.areaM2 * s.areaM2);
+}
+
+/**
+ * R/(μL) of a D profile or KOH trapezoid from the tabulated numerical solution (lib/hydraulics/section-table.ts).
+ * Written as 1/R' = (d³/12)(w − k·d): k, the "end loss" of the two sidewalls in depths, is interpolated in
+ * x = d/w (4-point Lagrange); below the first node (w > 10 d) the sidewalls no longer interact and k is constant
+ * (as in the rectangle series, where the remaining terms fall like e^{−πw/d}). Area in m² of the section at depth d.
+ */
+function tabulatedResistanceFactor(shape: "isotropic_etch" | "trapezoid_koh", topWidthM: number, depthM: number): number {
+  const xs = SECTION_TABLE_X[shape];
+  const as = SECTION_TABLE_ALPHA[shape];
+  // End loss at each node, in units of the depth (depth 1, width 1/x): k = w − 12 A²/α.
+  const unitArea = (x: number) => {
+    const w = 1 / x;
+    if (shape === "isotropic_etch") return (w - 2) + Math.PI / 2;
+    const floor = Math.max(0, w - 2 / Math.tan(KOH_SIDEWALL_RAD));
+    return ((w + floor) / 2) * 1;
+  };
+  const kAt = (i: number) => 1 / xs[i] - (12 * unitArea(xs[i]) ** 2) / as[i];
+  const x = Math.min(Math.max(depthM / topWidthM, xs[0]), xs[xs.length - 1]);
+  let k: number;
+  if (x <= xs[0]) k = kAt(0);
+  else {
+    let j = 0;
+    while (j + 1 < xs.length - 1 && xs[j + 1] < x) j++;
+    const lo = Math.max(0, Math.min(j - 1, xs.length - 4));
+    k = 0;
+    for (let a = lo; a < lo + 4; a++) {
+      let l = 1;
+      for (let b = lo; b < lo + 4; b++) if (b !== a) l *= (x - xs[b]) / (xs[a] - xs[b]);
+      k += l * kAt(a);
+    }
+  }
+  return 12 / (depthM ** 3 * (topWidthM - k * depthM));
 }
 
 /** Peak wall shear of a non-rectangular section, estimated on the rectangle of the same depth and area (so of width A/h). */
@@ -159,21 +202,22 @@ export function semicircleSection(radiusM: number): SectionProperties {
 /**
  * Isotropic wet etch ("D" profile): top width w, depth d, flat floor w − 2d, quarter-circle walls of
  * radius d (Iliescu et al., Biomicrofluidics 6, 016505 (2012), geometry). A top narrower than 2d is
- * taken as floor 0 with walls of radius w/2 (the fabrication rules flag it).
+ * taken as floor 0 with walls of radius w/2 (the fabrication rules flag it). Resistance from the tabulated
+ * numerical solution (exact semicircle at w = 2d).
  */
 export function isotropicEtchSection(topWidthM: number, depthM: number): SectionProperties {
   const d = Math.min(depthM, topWidthM / 2);
   const floor = topWidthM - 2 * d;
   const areaM2 = floor * d + (Math.PI * d * d) / 2;
   const perimeterM = topWidthM + floor + Math.PI * d;
-  const r = mortensenAlpha(perimeterM, areaM2, "rectangle") / (areaM2 * areaM2);
+  const r = tabulatedResistanceFactor("isotropic_etch", topWidthM, d);
   return {
     areaM2,
     perimeterM,
     hydraulicDiameterM: (4 * areaM2) / perimeterM,
     resistanceFactorPerM4: r,
     wallShearFactorPerM3: equivalentRectangleShear(areaM2, d, r),
-    method: "shape_factor",
+    method: "numerical_table",
     wallShearMethod: "equivalent_rectangle",
   };
 }
@@ -188,8 +232,7 @@ export function kohMaxDepthM(topWidthM: number): number {
 
 /**
  * KOH trapezoid: top (mask) width w, depth d, floor w − 2d/tan(54.74°); a groove deeper than the
- * V-groove limit is taken as the V-groove. Resistance by the Mortensen shape-factor fit: the triangle
- * fit for a V-groove, the rectangle fit once a floor exists.
+ * V-groove limit is taken as the V-groove. Resistance from the tabulated numerical solution.
  */
 export function kohTrapezoidSection(topWidthM: number, depthM: number): SectionProperties {
   const d = Math.min(depthM, kohMaxDepthM(topWidthM));
@@ -197,15 +240,14 @@ export function kohTrapezoidSection(topWidthM: number, depthM: number): SectionP
   const areaM2 = ((topWidthM + floor) / 2) * d;
   const side = d / Math.sin(KOH_SIDEWALL_RAD);
   const perimeterM = topWidthM + floor + 2 * side;
-  const family = floor <= 1e-9 * topWidthM ? "triangle" : "rectangle";
-  const r = mortensenAlpha(perimeterM, areaM2, family) / (areaM2 * areaM2);
+  const r = tabulatedResistanceFactor("trapezoid_koh", topWidthM, d);
   return {
     areaM2,
     perimeterM,
     hydraulicDiameterM: (4 * areaM2) / perimeterM,
     resistanceFactorPerM4: r,
     wallShearFactorPerM3: equivalentRectangleShear(areaM2, d, r),
-    method: "shape_factor",
+    method: "numerical_table",
     wallShearMethod: "equivalent_rectangle",
   };
 }

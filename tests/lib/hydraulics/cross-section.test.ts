@@ -8,6 +8,7 @@ import {
   rectangleResistanceFactor,
   rectangleSection,
   semicircleSection,
+  shapeFactorResistanceFactor,
 } from "@/lib/hydraulics/cross-section";
 import { buildNetwork } from "@/tests/support/network-builders";
 
@@ -115,16 +116,17 @@ describe("other cross-sections", () => {
     expect((s.resistanceFactorPerM4 * s.areaM2 * s.hydraulicDiameterM ** 2) / 2).toBeCloseTo(15.767, 2);
   });
 
-  // Mortensen, Okkels & Bruus (2005) triangle fit is exact for the equilateral triangle (REFERENCES §2: α = 20√3 at C = 12√3).
-  // Our KOH V-groove is an isosceles triangle; the check here is the fit's own value at the V-groove's C, and the
-  // exact V-groove depth w·tan(54.74°)/2 = 0.7071 w (REFERENCES §6, Petersen 1982).
-  it("KOH: V-groove depth limit is 0.7071 × the mask width and the floor closes there", () => {
+  // Exact V-groove depth w·tan(54.74°)/2 = 0.7071 w (REFERENCES §6, Petersen 1982). Mortensen, Okkels & Bruus (2005)
+  // triangle fit (exact for the equilateral triangle, REFERENCES §2) agrees with the tabulated numerical V-groove within 1 %.
+  it("KOH: V-groove depth limit is 0.7071 × the mask width; tabulated resistance agrees with Mortensen's triangle fit", () => {
     const w = 100e-6;
     expect(kohMaxDepthM(w) / w).toBeCloseTo(Math.SQRT1_2, 10);
     const v = kohTrapezoidSection(w, kohMaxDepthM(w));
     expect(v.areaM2).toBeCloseTo((w * kohMaxDepthM(w)) / 2, 18);
     const c = v.perimeterM ** 2 / v.areaM2;
-    expect(v.resistanceFactorPerM4 * v.areaM2 ** 2).toBeCloseTo((25 / 17) * c + (40 * Math.sqrt(3)) / 17, 8);
+    const fit = (25 / 17) * c + (40 * Math.sqrt(3)) / 17;
+    expect(shapeFactorResistanceFactor("trapezoid_koh", w, kohMaxDepthM(w)) * v.areaM2 ** 2).toBeCloseTo(fit, 8);
+    expect(Math.abs((v.resistanceFactorPerM4 * v.areaM2 ** 2) / fit - 1)).toBeLessThan(0.01);
   });
 
   it("KOH trapezoid: floor = w − √2·d and sidewall length d/sin(54.74°)", () => {
@@ -137,13 +139,19 @@ describe("other cross-sections", () => {
   });
 
   // Isotropic etch geometry (Iliescu et al. 2012, REFERENCES §6): floor w − 2d, quarter-circle walls of radius d.
-  it("isotropic etch: area and perimeter of the D profile; resistance between the rectangle of the same depth and a wider one", () => {
+  it("isotropic etch at w = 2d is the exact semicircle (REFERENCES §2: 13.4428 μL/a⁴)", () => {
+    const a = 30e-6;
+    expect(isotropicEtchSection(2 * a, a).resistanceFactorPerM4 * a ** 4).toBeCloseTo(13.4428, 3);
+  });
+
+  it("isotropic etch: area and perimeter of the D profile; resistance between the rectangle of the same depth and a narrower one", () => {
     const w = 150e-6;
     const d = 25e-6;
     const s = isotropicEtchSection(w, d);
     expect(s.areaM2).toBeCloseTo((w - 2 * d) * d + (Math.PI * d * d) / 2, 18);
     expect(s.perimeterM).toBeCloseTo(w + (w - 2 * d) + Math.PI * d, 15);
-    // The D lies inside the w × d rectangle and contains the (w − 2d) × d one, so its resistance lies between theirs.
+    // The D lies inside the w × d rectangle and contains the (w − 2d) × d one, so its resistance lies between theirs
+    // (resistance falls as a section grows: Poiseuille flow is monotone in the domain).
     expect(s.resistanceFactorPerM4).toBeGreaterThan(rectangleResistanceFactor(w, d));
     expect(s.resistanceFactorPerM4).toBeLessThan(rectangleResistanceFactor(w - 2 * d, d));
   });
