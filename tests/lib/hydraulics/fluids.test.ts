@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { waterDensityKgPerM3, waterSurfaceTensionNPerM, waterViscosityIapws2008PaS, waterViscosityPaS } from "@/lib/hydraulics/water";
-import { glycerolWaterViscosityPaS, resolveFluid, resolveSoluteDiffusivity, stokesEinsteinDiffusivity } from "@/lib/hydraulics/fluids";
+import { glycerolWaterViscosityPaS, listFluidPresets, resolveFluid, resolveSoluteDiffusivity, stokesEinsteinDiffusivity } from "@/lib/hydraulics/fluids";
 import { ConditionsError } from "@/lib/errors";
 
 // REFERENCES §3: water at 0.1 MPa, IAPWS-95 density, IAPWS 2008 viscosity, IAPWS R1-76(2014) surface tension.
@@ -83,6 +83,26 @@ describe("fluid resolution", () => {
   it("glycerol–water at 0 wt% reduces to Cheng's water term (1.0 mPa·s at 20 °C, IAPWS 1.0016 within 0.5 %)", () => {
     expect(Math.abs(glycerolWaterViscosityPaS(0, 20) / 1.0016e-3 - 1)).toBeLessThan(5e-3);
   });
+  // Pure glycerol at 20 °C ≈ 1412 mPa·s and 80 wt% ≈ 60.1 mPa·s (handbook values, from memory); Cheng's end-member
+  // and mixing terms should land within 2 %.
+  it("glycerol–water end member and 80 wt% agree with handbook viscosities (from memory) within 2 %", () => {
+    expect(Math.abs(glycerolWaterViscosityPaS(1, 20) / 1.412 - 1)).toBeLessThan(0.02);
+    expect(Math.abs(glycerolWaterViscosityPaS(0.8, 20) / 0.0601 - 1)).toBeLessThan(0.02);
+  });
+  it("every preset resolves to positive finite properties with a source for each, at 10 and 60 °C", () => {
+    for (const p of listFluidPresets()) {
+      for (const t of ["10 degC", "60 degC"]) {
+        const f = resolveFluid({ preset: p.name, temperature: t });
+        for (const v of [f.viscosityPaS, f.densityKgPerM3, f.surfaceTensionNPerM]) expect(v > 0 && Number.isFinite(v)).toBe(true);
+        expect(Object.keys(f.sources).sort()).toEqual(["density", "surface_tension", "viscosity"]);
+      }
+    }
+  });
+  it("viscosity falls with temperature for every preset (liquids)", () => {
+    for (const p of listFluidPresets()) {
+      expect(resolveFluid({ preset: p.name, temperature: "40 degC" }).viscosityPaS).toBeLessThan(resolveFluid({ preset: p.name, temperature: "20 degC" }).viscosityPaS);
+    }
+  });
   it("accepts glycerol_water_NN presets", () => {
     const f = resolveFluid({ preset: "glycerol_water_60", temperature: "20 degC" });
     expect(f.viscosityPaS).toBeCloseTo(glycerolWaterViscosityPaS(0.6, 20), 12);
@@ -107,5 +127,21 @@ describe("solutes", () => {
   });
   it("takes an explicit diffusivity over any preset", () => {
     expect(resolveSoluteDiffusivity({ preset: "glucose", diffusivity: "1e-9 m^2/s" }, undefined, 298.15, 1e-3).diffusivityM2PerS).toBe(1e-9);
+  });
+});
+
+describe("second phase", () => {
+  it("uses the given interfacial tension for Ca and marks its source", async () => {
+    const { resolvePhases } = await import("@/lib/hydraulics/solve-hydraulics");
+    const p = resolvePhases({ fluid: { preset: "water" }, second_phase: { preset: "fluorinated_oil", interfacial_tension: "5 mN/m" } });
+    expect(p.interfacialTensionNPerM).toBeCloseTo(5e-3, 12);
+    expect(p.secondPhase?.sources.interfacial_tension).toBe("given in the conditions");
+  });
+  it("falls back to Antonow's rule |σ₁ − σ₂| and says it is an estimate", async () => {
+    const { resolvePhases } = await import("@/lib/hydraulics/solve-hydraulics");
+    const p = resolvePhases({ fluid: { preset: "water", temperature: "25 degC" }, second_phase: { preset: "fluorinated_oil" } });
+    // IAPWS σ(25 °C) = 71.972 mN/m (REFERENCES §3) minus the oil's typical 16.2 mN/m.
+    expect(p.interfacialTensionNPerM * 1e3).toBeCloseTo(71.972 - 16.2, 2);
+    expect(p.secondPhase?.sources.interfacial_tension).toMatch(/estimate/);
   });
 });
