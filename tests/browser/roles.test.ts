@@ -2,6 +2,8 @@
 // grant, and refusals for what they may not open — another workspace, the admin pages.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
+import { navFor } from "@/components/shell/nav-items";
+import type { Role } from "@/lib/auth/roles";
 import { freshPage, launch, signIn, snap } from "./support";
 
 let browser: Browser;
@@ -12,12 +14,12 @@ afterAll(async () => {
   await browser?.close();
 });
 
-const ROLES = [
-  { email: "admin@brookmere.test", name: "Maren Ostby", badge: "Admin", admin: true },
-  { email: "designer@brookmere.test", name: "Tobiah Quill", badge: "Device designer", admin: false },
-  { email: "reviewer@brookmere.test", name: "Ilse Varga", badge: "Fluidics reviewer", admin: false },
-  { email: "fab@brookmere.test", name: "Dario Penwright", badge: "Fab liaison", admin: false },
-  { email: "lead@brookmere.test", name: "Sunniva Holt", badge: "Lead", admin: false },
+const ROLES: { email: string; name: string; badge: string; role: Role; admin: boolean }[] = [
+  { email: "admin@brookmere.test", name: "Maren Ostby", badge: "Admin", role: "admin", admin: true },
+  { email: "designer@brookmere.test", name: "Tobiah Quill", badge: "Device designer", role: "designer", admin: false },
+  { email: "reviewer@brookmere.test", name: "Ilse Varga", badge: "Fluidics reviewer", role: "fluidics_reviewer", admin: false },
+  { email: "fab@brookmere.test", name: "Dario Penwright", badge: "Fab liaison", role: "fab_liaison", admin: false },
+  { email: "lead@brookmere.test", name: "Sunniva Holt", badge: "Lead", role: "lead", admin: false },
 ];
 
 describe("the shell for each demo role", () => {
@@ -31,7 +33,12 @@ describe("the shell for each demo role", () => {
         await expect(page.getByTestId("user-roles").textContent()).resolves.toBe(role.badge);
         await expect(page.getByRole("heading", { level: 1 }).textContent()).resolves.toBe("Brookmere Biofluidics");
         const nav = page.getByRole("navigation", { name: "Workspace sections" });
-        expect(await nav.getByRole("link").allTextContents()).toEqual(role.admin ? ["Overview", "Admin"] : ["Overview"]);
+        const shown = await nav.getByRole("link").allTextContents();
+        // Exactly the sections the permission table grants this role (and whose pages exist)…
+        expect(shown).toEqual(navFor({ userId: 0, workspaceId: 0, roles: [role.role] }, "brookmere").map((i) => i.label));
+        // …which always includes the overview, and Admin only for admins.
+        expect(shown[0]).toBe("Overview");
+        expect(shown.includes("Admin")).toBe(role.admin);
         await expect(page.getByRole("link", { name: "Overview" }).getAttribute("aria-current")).resolves.toBe("page");
         await snap(page, `landing-${role.email.split("@")[0]}`);
 
