@@ -2,7 +2,7 @@ import { NotFoundError } from "@/lib/errors";
 import { errorResponse } from "@/lib/http/errors";
 
 /** Any /api/v1 address no handler serves: a JSON 404 (not Next's HTML page), for every method. */
-function unknown(): Response {
+async function unknown(): Promise<Response> {
   return errorResponse(new NotFoundError("No API endpoint lives at that address; see /api/v1/openapi.json for the list."));
 }
 
