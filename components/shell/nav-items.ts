@@ -10,7 +10,7 @@ export type NavItem = { key: string; label: string; path: string; permission: Pe
 export const NAV_ITEMS: readonly NavItem[] = [
   { key: "overview", label: "Overview", path: "", permission: "workspace.view", ready: true },
   { key: "chips", label: "Chips", path: "/chips", permission: "chip.view", ready: true },
-  { key: "review", label: "Review queue", path: "/review", permission: "review.queue.view", ready: false },
+  { key: "review", label: "Review queue", path: "/review", permission: "review.queue.view", ready: true },
   { key: "portfolio", label: "Portfolio", path: "/portfolio", permission: "portfolio.view", ready: false },
   { key: "settings", label: "Settings", path: "/settings", permission: "settings.view", ready: true },
   { key: "admin", label: "Admin", path: "/admin/members", permission: "workspace.manage", ready: true },
