@@ -13,7 +13,7 @@ import { readDxf, MAX_LAYOUT_BYTES } from "../dxf/read";
 import type { CircleEntity, DxfDrawing, PathEntity, Piece, TextEntity } from "../dxf/types";
 import { parseQuantity } from "../units/quantity";
 import { bboxOf, circleCrossings, endOf, intersect, pieceLength, pointAt, project, reversed, samplePoints, startOf, subPiece } from "./geometry";
-import { joinNearPoints, StaticGrid } from "./grid";
+import { CellHash, joinNearPoints, StaticGrid } from "./grid";
 import { describeLayers, planLayers, type LayerPlan, type ResolvedLayer } from "./layers";
 import type { ChannelNetwork, LayoutWarning, NetworkNode, NetworkPort, NetworkSegment, NodeKind, WidthSample } from "./types";
 
@@ -496,8 +496,10 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   stage("snap endpoints");
   // Duplicates and zero-length pieces.
   const keep: boolean[] = new Array(pieces.length).fill(true);
-  const byPair = new Map<number, number[]>();
-  const stride = nEnds + ports.length;
+  // Pieces by their (unordered) pair of end nodes, chained per pair: only pieces between the same two nodes can be copies.
+  const pairHash = new CellHash(pieces.length);
+  const pairHead = new Int32Array(pieces.length).fill(-1);
+  const pairNext = new Int32Array(pieces.length).fill(-1);
   const dupPairs = new Map<string, { x: number; y: number; count: number; types: string }>();
   pieces.forEach((w, i) => {
     const a = uf.find(2 * i);
@@ -506,15 +508,17 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       keep[i] = false;
       return;
     }
-    const key = a < b ? a * stride + b : b * stride + a;
-    const list = byPair.get(key);
-    if (!list) {
-      byPair.set(key, [i]);
-      return;
+    const slot = a < b ? pairHash.slot(a, b, true) : pairHash.slot(b, a, true);
+    let dup = -1;
+    for (let j = pairHead[slot]; j !== -1; j = pairNext[j]) {
+      if (sameGeometry(pieces[j].p, w.p, snap) || sameGeometry(pieces[j].p, reversed(w.p), snap)) {
+        dup = j;
+        break;
+      }
     }
-    const dup = list.find((j) => sameGeometry(pieces[j].p, w.p, snap) || sameGeometry(pieces[j].p, reversed(w.p), snap));
-    if (dup === undefined) {
-      list.push(i);
+    if (dup === -1) {
+      pairNext[i] = pairHead[slot];
+      pairHead[slot] = i;
       return;
     }
     keep[i] = false;
@@ -646,13 +650,12 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     }
     return id;
   };
-  // Ports first (in port order), then other nodes by x then y: stable numbering.
-  stops.sort((a, b) => {
-    const pa = portOfRoot.get(a);
-    const pb = portOfRoot.get(b);
-    if (pa !== undefined || pb !== undefined) return (pa ?? Infinity) - (pb ?? Infinity);
-    return endX[firstEnd(a)] - endX[firstEnd(b)] || endY[firstEnd(a)] - endY[firstEnd(b)];
-  });
+  // Walk from the ports first (in port order), then the other nodes in drawing order: stable numbering.
+  const portStops = stops.filter((r) => portOfRoot.has(r)).sort((a, b) => portOfRoot.get(a)! - portOfRoot.get(b)!);
+  const otherStops = stops.filter((r) => !portOfRoot.has(r));
+  stops.length = 0;
+  stops.push(...portStops);
+  for (const r of otherStops) stops.push(r);
   const usedPiece = new Uint8Array(pieces.length);
   const segments: NetworkSegment[] = [];
   const chain: number[] = [];
