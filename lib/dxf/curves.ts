@@ -10,6 +10,8 @@ export interface Pt {
 }
 
 const MAX_DEPTH = 14;
+/** Most points one flattened curve may produce; beyond it refinement stops (a hostile or broken file cannot stall the reader). */
+export const MAX_CURVE_POINTS = 100_000;
 
 /** Index of the knot span containing t (p ≤ span < n), by binary search. */
 function findSpan(knots: number[], p: number, n: number, t: number): number {
@@ -70,7 +72,7 @@ export function flattenParametric(f: (t: number) => Pt, t0: number, t1: number, 
     const q1 = f((ta + tm) / 2);
     const q3 = f((tm + tb) / 2);
     const dev = Math.max(chordDeviation(a, b, m), chordDeviation(a, b, q1), chordDeviation(a, b, q3));
-    if (dev <= tol || depth >= MAX_DEPTH) {
+    if (dev <= tol || depth >= MAX_DEPTH || out.length >= MAX_CURVE_POINTS) {
       out.push(b);
       return;
     }
@@ -105,7 +107,7 @@ export function flattenNurbs(ctrl: Pt[], weights: number[], knots: number[], deg
   for (let i = p; i <= n; i++) spans.add(knots[i]);
   const breaks = [...spans].sort((a, b) => a - b);
   const out: Pt[] = [];
-  for (let i = 0; i + 1 < breaks.length; i++) {
+  for (let i = 0; i + 1 < breaks.length && out.length < MAX_CURVE_POINTS; i++) {
     const part = flattenParametric((t) => evaluateNurbs(ctrl, weights, knots, p, t), breaks[i], breaks[i + 1], tol, 4);
     if (out.length > 0) part.shift();
     out.push(...part);
