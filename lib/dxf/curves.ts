@@ -63,7 +63,7 @@ function chordDeviation(a: Pt, b: Pt, m: Pt): number {
 }
 
 /** Adaptive flattening of a parametric curve on [t0, t1] so no chord strays more than tol from the curve (checked at chord midpoints and quarter points). */
-export function flattenParametric(f: (t: number) => Pt, t0: number, t1: number, tol: number, initialSteps: number): Pt[] {
+export function flattenParametric(f: (t: number) => Pt, t0: number, t1: number, tol: number, initialSteps: number, maxPoints = MAX_CURVE_POINTS): Pt[] {
   const out: Pt[] = [f(t0)];
   const steps = Math.max(1, initialSteps);
   const refine = (ta: number, a: Pt, tb: number, b: Pt, depth: number) => {
@@ -72,7 +72,7 @@ export function flattenParametric(f: (t: number) => Pt, t0: number, t1: number, 
     const q1 = f((ta + tm) / 2);
     const q3 = f((tm + tb) / 2);
     const dev = Math.max(chordDeviation(a, b, m), chordDeviation(a, b, q1), chordDeviation(a, b, q3));
-    if (dev <= tol || depth >= MAX_DEPTH || out.length >= MAX_CURVE_POINTS) {
+    if (dev <= tol || depth >= MAX_DEPTH || out.length >= maxPoints) {
       out.push(b);
       return;
     }
@@ -107,8 +107,10 @@ export function flattenNurbs(ctrl: Pt[], weights: number[], knots: number[], deg
   for (let i = p; i <= n; i++) spans.add(knots[i]);
   const breaks = [...spans].sort((a, b) => a - b);
   const out: Pt[] = [];
-  for (let i = 0; i + 1 < breaks.length && out.length < MAX_CURVE_POINTS; i++) {
-    const part = flattenParametric((t) => evaluateNurbs(ctrl, weights, knots, p, t), breaks[i], breaks[i + 1], tol, 4);
+  // The point budget is shared by the knot spans, so every span is drawn even when the budget binds.
+  const perSpan = Math.max(16, Math.floor(MAX_CURVE_POINTS / Math.max(1, breaks.length - 1)));
+  for (let i = 0; i + 1 < breaks.length; i++) {
+    const part = flattenParametric((t) => evaluateNurbs(ctrl, weights, knots, p, t), breaks[i], breaks[i + 1], tol, 4, perSpan);
     if (out.length > 0) part.shift();
     out.push(...part);
   }
