@@ -85,7 +85,11 @@ export async function runCli(argv: string[], write: (text: string) => void): Pro
     if (args.command === "layers") {
       const { surveyLayout } = await import("../network/survey");
       const parsed = geometryConditionsSchema.safeParse(rawConditions ?? {});
-      const conditions = parsed.success ? parsed.data : {};
+      if (!parsed.success) {
+        const issues = parsed.error.issues.map((i) => `${i.path.join(".") || "conditions"}: ${i.message}`);
+        throw new ConditionsError("invalid_conditions", `The conditions are not valid — ${issues.join("; ")}.`);
+      }
+      const conditions = parsed.data;
       const survey = surveyLayout(new Uint8Array(layout.buffer, layout.byteOffset, layout.byteLength), conditions);
       emit({
         ok: true,

@@ -86,6 +86,14 @@ describe("stokeline layers", () => {
       { name: "TEXT", role: "unmapped", entities: 4, by_type: { TEXT: 4 }, proposed_role: "ignore" },
     ]);
   });
+
+  it("names the mapped layers' roles and refuses invalid conditions", async () => {
+    const mapped = await run(["layers", fixture("cross-r2000.dxf"), "--conditions", conditionsFile("map.json", { layers: { flow: { role: "channel" } } })]);
+    expect((mapped.doc.layers as { name: string; role: string }[]).find((l) => l.name === "FLOW")!.role).toBe("channel");
+    const bad = await run(["layers", fixture("cross-r2000.dxf"), "--conditions", conditionsFile("badmap.json", { layers: { FLOW: { role: "pipe" } } })]);
+    expect(bad.code).toBe(2);
+    expect(bad.doc).toMatchObject({ ok: false, error: { code: "invalid_conditions" } });
+  });
 });
 
 describe("the installed command", () => {
