@@ -5,32 +5,40 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
 import { MODEL_CAUTIONS } from "@/lib/analysis/cautions";
 import { getPageAccess } from "@/lib/auth/page";
-import { can } from "@/lib/auth/permissions";
+import { navFor } from "@/components/shell/nav-items";
 import type { Role } from "@/lib/auth/roles";
 
 export const metadata: Metadata = { title: "Overview" };
 
-/** What each role does here, and the next step open to them today. */
-const ROLE_GUIDE: Record<Role, { title: string; body: string }> = {
+/**
+ * What each role does here, and where to go next: `next` names a navigation
+ * section; its button appears only when that section exists for this member.
+ */
+const ROLE_GUIDE: Record<Role, { title: string; body: string; next?: { nav: string; label: string } }> = {
   admin: {
     title: "Bring your team in",
     body: "Invite designers, fluidics reviewers, fab liaisons and leads by e-mail. Each invitation carries the roles that decide what the person can see and do.",
+    next: { nav: "admin", label: "Invite a member" },
   },
   designer: {
-    title: "Your chip layouts will live here",
-    body: "As a device designer you will upload a chip layout as DXF, map its layers to channels and ports, and set operating points; Stokeline then solves the channel hydraulics and flags flow-regime risks before you pay for a mask.",
+    title: "Check a layout before it goes to the fab",
+    body: "Upload a chip layout as DXF, map its layers to channels and ports, and set operating points; Stokeline solves the channel hydraulics and flags flow-regime risks before you pay for a mask.",
+    next: { nav: "chips", label: "Go to chips" },
   },
   fluidics_reviewer: {
-    title: "Nothing waits for your review",
-    body: "When a designer submits a revision, you will go through each regime flag and either accept it with a written justification or mark it must-fix.",
+    title: "Review the regime flags",
+    body: "When a designer submits a revision, go through each regime flag and either accept it with a written justification or mark it must-fix.",
+    next: { nav: "review", label: "Open the review queue" },
   },
   fab_liaison: {
-    title: "Nothing waits for clearance",
-    body: "Once fluidics review has passed, you will check the revision against your fab's rules and, when it is fit to build, clear it for tape-out with your signature.",
+    title: "Clear revisions for tape-out",
+    body: "Once fluidics review has passed, check the revision against your fab's rules and, when it is fit to build, clear it for tape-out with your signature.",
+    next: { nav: "review", label: "Open the review queue" },
   },
   lead: {
-    title: "No chips to summarise yet",
-    body: "You will see which chips are on track for tape-out, what changed between revisions and which risks were accepted, and download a brief to send to partners.",
+    title: "Follow the portfolio",
+    body: "See which chips are on track for tape-out, what changed between revisions and which risks were accepted, and download a brief to send to partners.",
+    next: { nav: "portfolio", label: "Open the portfolio" },
   },
 };
 
@@ -39,7 +47,12 @@ export default async function WorkspaceHome({ params }: { params: Promise<{ work
   const access = await getPageAccess(slug, "workspace.view");
   if (!access.ok) return <AccessDenied message={access.message} />;
   const { scope, workspace, user } = access;
-  const isAdmin = can(scope, "workspace.manage");
+  const sections = new Map(navFor(scope, slug).map((i) => [i.key, i.href]));
+  const nextHref = (role: Role): string | undefined => {
+    const next = ROLE_GUIDE[role].next;
+    if (!next || !sections.has(next.nav)) return undefined;
+    return next.nav === "admin" ? `/w/${slug}/admin/invitations` : sections.get(next.nav);
+  };
   return (
     <>
       <PageHeader
@@ -52,9 +65,9 @@ export default async function WorkspaceHome({ params }: { params: Promise<{ work
             key={role}
             title={ROLE_GUIDE[role].title}
             action={
-              role === "admin" && isAdmin ? (
-                <Link className="btn-primary" href={`/w/${slug}/admin/invitations`}>
-                  Invite a member
+              nextHref(role) ? (
+                <Link className="btn-primary" href={nextHref(role)!}>
+                  {ROLE_GUIDE[role].next!.label}
                 </Link>
               ) : undefined
             }
