@@ -75,16 +75,14 @@ def droplet(rev):
     nozzle_w = 40 if rev == 1 else 55  # rev 2 widens the orifice for larger droplets
     doc, msp = new_doc("droplet")
     jx, jy = 6000.0, 5000.0
-    # Aqueous inlet straight into the cross from the left.
-    msp.add_line((1500, jy), (jx, jy), dxfattribs={"layer": "FLOW"})
-    port(msp, 1500, jy, "IN_AQ")
-    # Oil inlet top-left, split into two arms that reach the cross from above and below.
-    ox, oy = 1500.0, 8500.0
-    port(msp, ox, oy, "IN_OIL")
-    msp.add_line((ox, oy), (3500, oy), dxfattribs={"layer": "FLOW"})
-    msp.add_line((3500, oy), (3500, 1500), dxfattribs={"layer": "FLOW"})
-    msp.add_lwpolyline([(3500, 1500, 0), (jx, 1500, 0), (jx, jy, 0)], dxfattribs={"layer": "FLOW"})
-    msp.add_lwpolyline([(3500, 7500, 0), (jx, 7500, 0), (jx, jy, 0)], dxfattribs={"layer": "FLOW"})
+    # Oil inlet on the left; its two arms wrap round the aqueous inlet and reach the cross from above and below.
+    ox = 1500.0
+    port(msp, ox, jy, "IN_OIL")
+    msp.add_lwpolyline([(ox, jy), (ox, jy + 2500), (jx, jy + 2500), (jx, jy)], dxfattribs={"layer": "FLOW"})
+    msp.add_lwpolyline([(ox, jy), (ox, jy - 2500), (jx, jy - 2500), (jx, jy)], dxfattribs={"layer": "FLOW"})
+    # Aqueous inlet between the arms, straight into the cross.
+    port(msp, 3500, jy, "IN_AQ")
+    msp.add_line((3500, jy), (jx, jy), dxfattribs={"layer": "FLOW"})
     # Nozzle (orifice), then a straight expansion lead and a serpentine delay line, drawn with their own widths.
     msp.add_lwpolyline([(jx, jy), (jx + 150, jy)], dxfattribs={"layer": "FLOW", "const_width": nozzle_w})
     msp.add_lwpolyline([(jx + 150, jy), (jx + 1500, jy)], dxfattribs={"layer": "FLOW", "const_width": 200})
@@ -183,7 +181,7 @@ write_conditions("droplet-generator.conditions.json", {
     "layers": {"FLOW": {"role": "channel", "depth": "50 um", "width": "100 um", "section": "rectangular"}, **common_layers},
     "fluid": {"preset": "fluorinated_oil"},
     "second_phase": {"preset": "aqueous_buffer"},
-    "ports": {"IN_OIL": {"flow": "5 uL/min"}, "IN_AQ": {"flow": "1 uL/min"}, "OUT": {"pressure": 0}},
+    "ports": {"IN_OIL": {"flow": "5 uL/min", "phase": "continuous"}, "IN_AQ": {"flow": "1 uL/min", "phase": "dispersed"}, "OUT": {"pressure": 0}},
     "process": "pdms_soft_lithography",
     "pump": {"max_pressure": "2 bar"},
 })
