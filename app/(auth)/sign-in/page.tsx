@@ -1,7 +1,10 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { redirect } from "next/navigation";
 import { SignInForm } from "@/components/auth/sign-in-form";
 import { Notice } from "@/components/ui/notice";
+import { getUserById } from "@/db/queries/users";
+import { getSessionUserId } from "@/lib/auth/session";
 import { safeCallbackPath } from "@/lib/http/safe-redirect";
 
 export const metadata: Metadata = { title: "Sign in" };
@@ -14,6 +17,9 @@ const NOTICES: Record<string, string> = {
 
 export default async function SignInPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const sp = await searchParams;
+  // Already signed in (and the account still exists): go where the visitor was heading.
+  const sessionUserId = await getSessionUserId();
+  if (sessionUserId !== null && (await getUserById(sessionUserId))) redirect(safeCallbackPath(sp.callbackUrl));
   const notice = typeof sp.notice === "string" ? NOTICES[sp.notice] : undefined;
   const email = typeof sp.email === "string" ? sp.email.slice(0, 254) : undefined;
   const urlError = typeof sp.error === "string" ? sp.error.slice(0, 300) : undefined;
