@@ -2,7 +2,20 @@
  * Plain words for audit events of a revision and for how long something has
  * waited, for the history page, the review screen and the queue. Pure.
  */
+import { RULES } from "../rules/registry";
 import { STATUS_LABELS, type ReviewStatus } from "./machine";
+
+const SEVERITY_WORDS: Record<string, string> = { block: "blocking", warn: "warning", info: "note" };
+const severityWord = (v: unknown): string => SEVERITY_WORDS[String(v)] ?? String(v ?? "");
+
+const RULE_TITLES = new Map(RULES.map((r) => [r.code, r.title]));
+
+/** "Pump cannot reach this pressure (port A)" for the flag key "pump_pressure_max|port|A". */
+export function describeFlagKey(flagKey: string): string {
+  const [code = "", kind = "", id = "*"] = flagKey.split("|");
+  const where = id === "*" ? kind : `${kind} ${id}`;
+  return `${RULE_TITLES.get(code) ?? code}${where ? ` (${where})` : ""}`;
+}
 
 const str = (v: unknown): string | null => (typeof v === "string" && v.trim() !== "" ? v.trim() : null);
 const label = (v: unknown): string => (typeof v === "string" && v in STATUS_LABELS ? STATUS_LABELS[v as ReviewStatus] : String(v ?? "—"));
@@ -25,9 +38,9 @@ export function describeAuditEvent(action: string, details: Record<string, unkno
     case "review.analysis_updated":
       return withNote(`Put analysis ${String(details.analysisId ?? "?")} under review in place of ${String(details.previousAnalysisId ?? "?")}`);
     case "review.flag_waived":
-      return withNote(`Waived flag ${String(details.flagKey ?? "?")} (${String(details.severity ?? "")})`);
+      return withNote(`Waived the ${severityWord(details.severity)} flag “${describeFlagKey(String(details.flagKey ?? ""))}”`);
     case "review.flag_must_fix":
-      return withNote(`Marked flag ${String(details.flagKey ?? "?")} must-fix (${String(details.severity ?? "")})`);
+      return withNote(`Marked the ${severityWord(details.severity)} flag “${describeFlagKey(String(details.flagKey ?? ""))}” must-fix`);
     case "review.fluidics_passed":
       return withNote(`Passed the fluidics review: ${label(details.from)} → ${label(details.to)}`);
     case "review.changes_requested":

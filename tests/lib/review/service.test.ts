@@ -132,3 +132,20 @@ describe("fan-out", () => {
     expect(mail.text.split("\n")).toContain("http://localhost:3000/w/brookmere/chips/1/revisions/3/review");
   });
 });
+
+describe("words for the history and the queue", () => {
+  it("names flags by their rule title and target, and says how long something waited", async () => {
+    const { describeAuditEvent, describeFlagKey, formatWaited } = await import("@/lib/review/describe");
+    // Titles come from the rule registry (lib/rules/registry.ts).
+    const { ruleDefinition } = await import("@/lib/rules/registry");
+    expect(describeFlagKey("pump_pressure_max|port|A")).toBe(`${ruleDefinition("pump_pressure_max").title} (port A)`);
+    expect(describeAuditEvent("review.flag_waived", { flagKey: "pressure_bond|port|A", severity: "block", justification: "Clamped fixture." })).toBe(
+      `Waived the blocking flag “${ruleDefinition("pressure_bond").title} (port A)” — “Clamped fixture.”`,
+    );
+    // Plain arithmetic: 3 h 20 min = 12 000 s; 4 d 2 h = 352 800 s.
+    expect(formatWaited(0, 45 * 60_000)).toBe("45 min");
+    expect(formatWaited(0, 12_000_000)).toBe("3 h 20 min");
+    expect(formatWaited(0, 352_800_000)).toBe("4 d 2 h");
+    expect(formatWaited(10_000, 0)).toBe("0 min");
+  });
+});

@@ -13,7 +13,7 @@ import { MODEL_CAUTIONS } from "@/lib/analysis/cautions";
 import { getPageAccess } from "@/lib/auth/page";
 import { listProcesses } from "@/lib/rules";
 import { can } from "@/lib/auth/permissions";
-import { describeAuditEvent, formatWaited } from "@/lib/review/describe";
+import { describeAuditEvent, describeFlagKey, formatWaited } from "@/lib/review/describe";
 import { getReviewOverview } from "@/lib/review/service";
 
 export const metadata: Metadata = { title: "Review" };
@@ -73,7 +73,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ workspa
     flags.push({
       flagKey: item.flagKey,
       code: item.code ?? "",
-      title: `${item.code ?? "flag"} (no longer raised)`,
+      title: `${describeFlagKey(item.flagKey)} — no longer raised`,
       message: "The analysis now under review does not raise this flag.",
       severity: "info",
       family: item.code?.startsWith("fab_") ? "fabrication" : "regime",
