@@ -23,7 +23,7 @@ describe("navFor", () => {
     }
   });
 
-  it("hides sections whose page does not exist yet, and shows nothing to a member without roles but the overview", () => {
+  it("hides sections whose page does not exist yet, and nothing at all to a member holding no role", () => {
     const items: NavItem[] = [
       { key: "overview", label: "Overview", path: "", permission: "workspace.view", ready: true },
       { key: "future", label: "Future", path: "/future", permission: "workspace.view", ready: false },
