@@ -111,6 +111,7 @@ export default async function RevisionPage({
               {revision.fileName} · {formatBytes(revision.sizeBytes)} · SHA-256 {shortSha(revision.sha256)}…
             </span>
             <span className="text-sm">uploaded {formatWhen(revision.uploadedAt)}</span>
+            <Link href={`${href}/review`} className="text-sm font-semibold" data-testid="open-review">Review and sign-off</Link>
           </span>
         }
         actions={
