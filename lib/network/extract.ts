@@ -182,7 +182,10 @@ function chooseCellSize(works: Work[], snap: number): number {
   return Math.max(sum / works.length, extent / 2048, snap * 4, extent * 1e-9);
 }
 
-/** Split parameters for every piece: T-junctions and crossings. Lines (the common case) are handled inline, without allocation. */
+/**
+ * Split parameters for every piece: T-junctions and crossings. Line coordinates are copied into typed
+ * arrays first: the pair loop then reads contiguous memory, and lines (the common case) need no allocation.
+ */
 function findSplits(works: Work[], cellSize: number, snap: number): (number[] | null)[] {
   const n = works.length;
   const splits: (number[] | null)[] = new Array(n).fill(null);
@@ -191,48 +194,62 @@ function findSplits(works: Work[], cellSize: number, snap: number): (number[] | 
     if (list) list.push(t);
     else splits[i] = [t];
   };
-  const interior = (i: number, t: number) => t * works[i].len > snap && (1 - t) * works[i].len > snap;
-  const snap2 = snap * snap;
-  // Endpoint of one piece on the interior of another (T-junction): split the other there.
-  const endOnto = (x: number, y: number, j: number) => {
-    const q = works[j].p;
-    if (q.kind === "line") {
-      const dx = q.x1 - q.x0;
-      const dy = q.y1 - q.y0;
-      const l2 = dx * dx + dy * dy;
-      if (l2 === 0) return;
-      const t = ((x - q.x0) * dx + (y - q.y0) * dy) / l2;
-      if (t <= 0 || t >= 1) return;
-      const ex = x - (q.x0 + dx * t);
-      const ey = y - (q.y0 + dy * t);
-      if (ex * ex + ey * ey <= snap2 && interior(j, t)) add(j, t);
-      return;
-    }
-    const pr = project(q, x, y);
-    if (pr.dist <= snap && interior(j, pr.t)) add(j, pr.t);
-  };
-  // Boxes grown by the snap tolerance, so pieces that nearly touch are paired too.
+  const isLine = new Uint8Array(n);
+  const X0 = new Float64Array(n);
+  const Y0 = new Float64Array(n);
+  const X1 = new Float64Array(n);
+  const Y1 = new Float64Array(n);
+  const L = new Float64Array(n);
   const boxes = new Float64Array(n * 4);
   for (let i = 0; i < n; i++) {
-    const b = works[i].box;
+    const w = works[i];
+    const p = w.p;
+    if (p.kind === "line") {
+      isLine[i] = 1;
+      X0[i] = p.x0; Y0[i] = p.y0; X1[i] = p.x1; Y1[i] = p.y1;
+    } else {
+      const s = startOf(p);
+      const e = endOf(p);
+      X0[i] = s.x; Y0[i] = s.y; X1[i] = e.x; Y1[i] = e.y;
+    }
+    L[i] = w.len;
+    // Boxes grown by the snap tolerance, so pieces that nearly touch are paired too.
+    const b = w.box;
     boxes[4 * i] = b[0] - snap;
     boxes[4 * i + 1] = b[1] - snap;
     boxes[4 * i + 2] = b[2] + snap;
     boxes[4 * i + 3] = b[3] + snap;
   }
+  const interior = (i: number, t: number) => t * L[i] > snap && (1 - t) * L[i] > snap;
+  const snap2 = snap * snap;
+  // Endpoint (x, y) of one piece on the interior of piece j (a T-junction): split j there.
+  const endOnto = (x: number, y: number, j: number) => {
+    if (isLine[j]) {
+      const dx = X1[j] - X0[j];
+      const dy = Y1[j] - Y0[j];
+      const l2 = dx * dx + dy * dy;
+      if (l2 === 0) return;
+      const t = ((x - X0[j]) * dx + (y - Y0[j]) * dy) / l2;
+      if (t <= 0 || t >= 1) return;
+      const ex = x - (X0[j] + dx * t);
+      const ey = y - (Y0[j] + dy * t);
+      if (ex * ex + ey * ey <= snap2 && interior(j, t)) add(j, t);
+      return;
+    }
+    const pr = project(works[j].p, x, y);
+    if (pr.dist <= snap && interior(j, pr.t)) add(j, pr.t);
+  };
   const grid = new StaticGrid(cellSize, boxes);
   grid.forEachOverlappingPair(boxes, (i, j) => {
-    const pi = works[i].p;
-    const pj = works[j].p;
-    if (pi.kind === "line" && pj.kind === "line") {
-      const rx = pi.x1 - pi.x0;
-      const ry = pi.y1 - pi.y0;
-      const sx = pj.x1 - pj.x0;
-      const sy = pj.y1 - pj.y0;
+    if (isLine[i] && isLine[j]) {
+      const rx = X1[i] - X0[i];
+      const ry = Y1[i] - Y0[i];
+      const sx = X1[j] - X0[j];
+      const sy = Y1[j] - Y0[j];
       const den = rx * sy - ry * sx;
       if (Math.abs(den) > 1e-14 * Math.sqrt((rx * rx + ry * ry) * (sx * sx + sy * sy))) {
-        const qpx = pj.x0 - pi.x0;
-        const qpy = pj.y0 - pi.y0;
+        const qpx = X0[j] - X0[i];
+        const qpy = Y0[j] - Y0[i];
         const t = (qpx * sy - qpy * sx) / den;
         const u = (qpx * ry - qpy * rx) / den;
         if (t >= 0 && t <= 1 && u >= 0 && u <= 1) {
@@ -240,21 +257,16 @@ function findSplits(works: Work[], cellSize: number, snap: number): (number[] | 
           if (interior(j, u)) add(j, u);
         }
       }
-      endOnto(pi.x0, pi.y0, j);
-      endOnto(pi.x1, pi.y1, j);
-      endOnto(pj.x0, pj.y0, i);
-      endOnto(pj.x1, pj.y1, i);
-      return;
+    } else {
+      for (const h of intersect(works[i].p, works[j].p)) {
+        if (interior(i, h.t)) add(i, h.t);
+        if (interior(j, h.u)) add(j, h.u);
+      }
     }
-    for (const h of intersect(pi, pj)) {
-      if (interior(i, h.t)) add(i, h.t);
-      if (interior(j, h.u)) add(j, h.u);
-    }
-    const a0 = startOf(pi), a1 = endOf(pi), b0 = startOf(pj), b1 = endOf(pj);
-    endOnto(a0.x, a0.y, j);
-    endOnto(a1.x, a1.y, j);
-    endOnto(b0.x, b0.y, i);
-    endOnto(b1.x, b1.y, i);
+    endOnto(X0[i], Y0[i], j);
+    endOnto(X1[i], Y1[i], j);
+    endOnto(X0[j], Y0[j], i);
+    endOnto(X1[j], Y1[j], i);
   });
   return splits;
 }

@@ -132,7 +132,7 @@ export class StaticGrid {
 
   /** Collect into `out` (cleared first) the items whose cells meet the box; an item may repeat. */
   queryInto(minX: number, minY: number, maxX: number, maxY: number, out: number[]): number[] {
-    out.length = 0;
+    if (out.length !== 0) out.length = 0;
     const x0 = clampCell(Math.floor(minX * this.inv + GRID_PHASE));
     const x1 = clampCell(Math.floor(maxX * this.inv + GRID_PHASE));
     const y0 = clampCell(Math.floor(minY * this.inv + GRID_PHASE));
