@@ -288,8 +288,9 @@ export function ReviewScreen(props: {
   canDispose: boolean;
   canComment: boolean;
   comments: ReviewCommentItem[];
+  flagsHeading: string;
 }) {
-  const { where, version, analysis, flags, canDispose, canComment, comments, title } = props;
+  const { where, version, analysis, flags, canDispose, canComment, comments, title, flagsHeading } = props;
   const [selectedId, setSelectedId] = useState<string | null>(null);
   const markers = useMemo(() => (analysis ? flagMarkers(analysis) : []), [analysis]);
   const pinned = useMemo(() => new Set(comments.filter((c) => c.segmentId && !c.resolved).map((c) => c.segmentId!)), [comments]);
@@ -342,7 +343,7 @@ export function ReviewScreen(props: {
       <section aria-labelledby="flags-title" className="panel space-y-4 p-4">
         <div className="flex flex-wrap items-baseline justify-between gap-2">
           <h2 id="flags-title" className="text-base font-semibold text-ink-900">
-            Flags of the analysis under review
+            {flagsHeading}
           </h2>
           <p className="text-xs text-ink-700" data-testid="open-blocks">
             {open === 0 ? "No blocking flag is open." : `${open} blocking flag(s) still open.`}

@@ -77,6 +77,7 @@ describe("review and sign-off, end to end", () => {
     // 1. The designer submits with a note.
     await designer.goto(reviewUrl);
     expect(await statusOf(designer)).toBe("draft");
+    await snap(designer, "review-draft-1440");
     const steps = designer.getByTestId("review-steps");
     await steps.getByLabel("What changed and why").fill("First cut of the splitter, driven hard to find the limits.");
     await steps.getByRole("button", { name: "Submit for review" }).click();
@@ -139,6 +140,7 @@ describe("review and sign-off, end to end", () => {
     await clear.getByRole("button", { name: "Clear and sign" }).click();
     await waitForStatus(fab, "cleared");
     await fab.getByText(/Cleared for tape-out — this revision is frozen/).waitFor();
+    await snap(fab, "review-cleared-1440");
 
     // 6. The cleared revision refuses edits (409 through the chips API).
     const frozen = await designer.request.post(`${rev}/operating-points`, { data: form("after clearance", "10 uL/min") });
@@ -177,5 +179,6 @@ describe("review and sign-off, end to end", () => {
     await designer.goto("/w/brookmere/inbox");
     const kinds = await designer.getByTestId("inbox-item").evaluateAll((items) => items.map((i) => i.getAttribute("data-kind")));
     expect(kinds).toEqual(expect.arrayContaining(["mentioned", "cleared"]));
+    await snap(designer, "inbox-1440");
   });
 });

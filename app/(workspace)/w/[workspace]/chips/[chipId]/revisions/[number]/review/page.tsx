@@ -42,8 +42,9 @@ export default async function ReviewPage({ params }: { params: Promise<{ workspa
   const processKey = typeof shownRow?.conditions.process === "string" ? shownRow.conditions.process : "";
   const process = listProcesses().find((p) => p.id === processKey)?.label ?? processKey;
   const byKey = new Map(o.checklist.map((i) => [i.flagKey, i]));
-  const flags: ReviewFlagItem[] = doc
-    ? doc.flags.map((f) => {
+  const flagSource = (doc ?? shown) as typeof doc;
+  const flags: ReviewFlagItem[] = flagSource
+    ? flagSource.flags.map((f) => {
         const key = `${f.code}|${f.target.kind}|${f.target.id ?? "*"}`;
         const item = byKey.get(key);
         const d = item?.disposition ?? null;
@@ -158,6 +159,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ workspa
             canDispose={o.allowed.includes("dispose_flag")}
             canComment={can(access.scope, "comment.create") && access.scope.roles.some((r) => r !== "lead")}
             comments={comments}
+            flagsHeading={doc ? "Flags of the analysis under review" : "Flags of the newest analysis (not under review yet)"}
           />
         </div>
         <aside className="space-y-4 lg:col-span-4">
