@@ -369,7 +369,9 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   const texts: TextEntity[] = [];
   const outlinePaths: PathEntity[] = [];
   const outlineCircles: CircleEntity[] = [];
-  const shapesByLayer = new Map<string, number>();
+  // Closed shapes (closed polylines without drawn width, circles) on channel layers, by layer: mask outlines.
+  // This is where an outline reader (issue 9) plugs in, turning them into centreline pieces per layer.
+  const shapesByLayer = new Map<string, (PathEntity | CircleEntity)[]>();
   const linesByLayer = new Map<string, number>();
   let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
   const grow = (b: [number, number, number, number]) => {
@@ -396,7 +398,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       if (e.kind === "circle" || (e.closed && !drawnWidth)) {
         if (e.kind === "path") for (const p of e.pieces) grow(bboxOf(p));
         // Closed shapes on a channel layer are mask outlines (chambers, filled channels), kept for an outline reader.
-        shapesByLayer.set(e.layer, (shapesByLayer.get(e.layer) ?? 0) + 1);
+        (shapesByLayer.get(e.layer) ?? shapesByLayer.set(e.layer, []).get(e.layer)!).push(e);
         return;
       }
       linesByLayer.set(e.layer, (linesByLayer.get(e.layer) ?? 0) + 1);
@@ -411,7 +413,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   });
   for (const l of plan.summaries) {
     if (l.role !== "channel") continue;
-    const shapes = shapesByLayer.get(l.name) ?? 0;
+    const shapes = shapesByLayer.get(l.name)?.length ?? 0;
     const lines = linesByLayer.get(l.name) ?? 0;
     l.style = shapes > 0 && lines > 0 ? "mixed" : shapes > 0 ? "outline" : "centreline";
     if (shapes > 0) {
