@@ -231,6 +231,8 @@ describe("refusals", () => {
     expect((await step(flagsRoute, s, FAB, { flagKey: PUMP, decision: "must_fix" })).status).toBe(403);
     expect((await step(passRoute, s, FAB, {})).status).toBe(403);
     expect((await step(passRoute, s, LEAD, {})).status).toBe(403);
+    expect((await step(requestChangesRoute, s, LEAD, { note: "Leads only read." })).status).toBe(403);
+    expect((await step(requestChangesRoute, s, DESIGNER, { note: "Designers do not review." })).status).toBe(403);
     const fabTooEarly = await step(requestChangesRoute, s, FAB, { note: "Not my stage yet." });
     expect(fabTooEarly.status).toBe(403);
     expect(fabTooEarly.body.error?.message).toMatch(/At this stage only a fluidics reviewer/);
