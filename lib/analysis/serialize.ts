@@ -44,7 +44,7 @@ export interface AnalyzeSegmentJson {
   peclet?: number;
   /** De = Re·√(D_h/(2·R_c)), R_c the smallest bend radius; null for a straight segment. */
   dean?: number | null;
-  /** Peak wall shear: exact series for rectangles, 4μQ/(πa³) for circles, equivalent rectangle for other sections. */
+  /** Peak wall shear: exact series for rectangles, 4μQ/(πa³) for circles, a tabulated numerical solution for D, KOH and half-disc sections. */
   wall_shear_Pa?: number;
   /** Volume / |Q|; serialised as null (Infinity in memory) where the segment carries no flow. */
   residence_s?: number;

@@ -5,7 +5,7 @@
  */
 import type { NetworkSegment, SectionShape, WidthSample } from "../network/types";
 import { ConditionsError } from "../errors";
-import { SECTION_TABLE_ALPHA, SECTION_TABLE_X } from "./section-table";
+import { SECTION_TABLE_ALPHA, SECTION_TABLE_SHEAR, SECTION_TABLE_X } from "./section-table";
 
 export interface SectionProperties {
   areaM2: number;
@@ -20,7 +20,7 @@ export interface SectionProperties {
   /** How the resistance was obtained. */
   method: "exact_series" | "exact" | "numerical_table" | "shape_factor";
   /** How the wall shear was obtained. */
-  wallShearMethod: "exact_series" | "exact" | "equivalent_rectangle";
+  wallShearMethod: "exact_series" | "exact" | "numerical_table";
 }
 
 /** ζ(5), Apéry-type constant, for the closed tail of Σ 1/n⁵ (DLMF 25.6, value from memory to 16 digits; the rectangle series values in the tests confirm it). */
@@ -142,6 +142,30 @@ export function shapeFactorResistanceFactor(shape: "isotropic_etch" | "trapezoid
   return mortensenAlpha(s.perimeterM, s.areaM2, floorless ? "triangle" : "rectangle") / (s.areaM2 * s.areaM2);
 }
 
+/** 4-point Lagrange interpolation in a table, clamped to its ends (below the first node the value is held). */
+function interpolateTable(xs: readonly number[], ys: readonly number[], xIn: number): number {
+  const x = Math.min(Math.max(xIn, xs[0]), xs[xs.length - 1]);
+  if (x <= xs[0]) return ys[0];
+  let j = 0;
+  while (j + 1 < xs.length - 1 && xs[j + 1] < x) j++;
+  const lo = Math.max(0, Math.min(j - 1, xs.length - 4));
+  let y = 0;
+  for (let a = lo; a < lo + 4; a++) {
+    let l = 1;
+    for (let b = lo; b < lo + 4; b++) if (b !== a) l *= (x - xs[b]) / (xs[a] - xs[b]);
+    y += l * ys[a];
+  }
+  return y;
+}
+
+/**
+ * Peak wall shear per unit pressure gradient of a D profile or KOH trapezoid, m: depth × the tabulated value
+ * (same numerical solve as the resistance; wide sections tend to the plane-Poiseuille d/2).
+ */
+function tabulatedShearPerGradient(shape: "isotropic_etch" | "trapezoid_koh", topWidthM: number, depthM: number): number {
+  return depthM * interpolateTable(SECTION_TABLE_X[shape], SECTION_TABLE_SHEAR[shape], depthM / topWidthM);
+}
+
 /**
  * R/(μL) of a D profile or KOH trapezoid from the tabulated numerical solution (lib/hydraulics/section-table.ts).
  * Written as 1/R' = (d³/12)(w − k·d): k, the "end loss" of the two sidewalls in depths, is interpolated in
@@ -158,31 +182,12 @@ function tabulatedResistanceFactor(shape: "isotropic_etch" | "trapezoid_koh", to
     const floor = Math.max(0, w - 2 / Math.tan(KOH_SIDEWALL_RAD));
     return ((w + floor) / 2) * 1;
   };
-  const kAt = (i: number) => 1 / xs[i] - (12 * unitArea(xs[i]) ** 2) / as[i];
-  const x = Math.min(Math.max(depthM / topWidthM, xs[0]), xs[xs.length - 1]);
-  let k: number;
-  if (x <= xs[0]) k = kAt(0);
-  else {
-    let j = 0;
-    while (j + 1 < xs.length - 1 && xs[j + 1] < x) j++;
-    const lo = Math.max(0, Math.min(j - 1, xs.length - 4));
-    k = 0;
-    for (let a = lo; a < lo + 4; a++) {
-      let l = 1;
-      for (let b = lo; b < lo + 4; b++) if (b !== a) l *= (x - xs[b]) / (xs[a] - xs[b]);
-      k += l * kAt(a);
-    }
-  }
+  const ks = xs.map((x, i) => 1 / x - (12 * unitArea(x) ** 2) / as[i]);
+  const k = interpolateTable(xs, ks, depthM / topWidthM);
   return 12 / (depthM ** 3 * (topWidthM - k * depthM));
 }
 
-/** Peak wall shear of a non-rectangular section, estimated on the rectangle of the same depth and area (so of width A/h). */
-function equivalentRectangleShear(areaM2: number, depthM: number, resistanceFactor: number): number {
-  const wEq = areaM2 / depthM;
-  return rectangleMaxShearPerGradient(wEq, depthM) * resistanceFactor;
-}
-
-/** Half-disc of radius a (= depth), flat side on the lid: exact series resistance. */
+/** Half-disc of radius a (= depth), flat side on the lid: exact series resistance, tabulated peak shear. */
 export function semicircleSection(radiusM: number): SectionProperties {
   const a = radiusM;
   const areaM2 = (Math.PI * a * a) / 2;
@@ -193,9 +198,10 @@ export function semicircleSection(radiusM: number): SectionProperties {
     perimeterM,
     hydraulicDiameterM: (4 * areaM2) / perimeterM,
     resistanceFactorPerM4: r,
-    wallShearFactorPerM3: equivalentRectangleShear(areaM2, a, r),
+    // The D table's last node (w = 2d) is this half-disc.
+    wallShearFactorPerM3: tabulatedShearPerGradient("isotropic_etch", 2 * a, a) * r,
     method: "exact",
-    wallShearMethod: "equivalent_rectangle",
+    wallShearMethod: "numerical_table",
   };
 }
 
@@ -216,9 +222,9 @@ export function isotropicEtchSection(topWidthM: number, depthM: number): Section
     perimeterM,
     hydraulicDiameterM: (4 * areaM2) / perimeterM,
     resistanceFactorPerM4: r,
-    wallShearFactorPerM3: equivalentRectangleShear(areaM2, d, r),
+    wallShearFactorPerM3: tabulatedShearPerGradient("isotropic_etch", topWidthM, d) * r,
     method: "numerical_table",
-    wallShearMethod: "equivalent_rectangle",
+    wallShearMethod: "numerical_table",
   };
 }
 
@@ -246,9 +252,9 @@ export function kohTrapezoidSection(topWidthM: number, depthM: number): SectionP
     perimeterM,
     hydraulicDiameterM: (4 * areaM2) / perimeterM,
     resistanceFactorPerM4: r,
-    wallShearFactorPerM3: equivalentRectangleShear(areaM2, d, r),
+    wallShearFactorPerM3: tabulatedShearPerGradient("trapezoid_koh", topWidthM, d) * r,
     method: "numerical_table",
-    wallShearMethod: "equivalent_rectangle",
+    wallShearMethod: "numerical_table",
   };
 }
 

@@ -14,3 +14,9 @@ export const SECTION_TABLE_ALPHA = {
   isotropic_etch: [123.827247, 100.016544, 84.218623, 64.666666, 53.184178, 45.785581, 40.769189, 37.284516, 34.852359, 33.169029],
   trapezoid_koh: [121.005902, 97.232729, 81.480314, 62.050251, 50.746687, 43.609499, 38.968572, 36.008728, 34.28681, 33.530142, 33.526444, 34.037123, 34.719092, 35.112524, 35.119598],
 } as const;
+
+/** Peak wall shear per unit pressure gradient, in depths: τ_max = (Δp/L)·depth·value (same solve: largest element gradient on the wall for the trapezoid, floor/lid centre for the D; the 2:1 rectangle check gives 0.07 %). */
+export const SECTION_TABLE_SHEAR = {
+  isotropic_etch: [0.499999, 0.499991, 0.499939, 0.499184, 0.496148, 0.489183, 0.477733, 0.462341, 0.444168, 0.424513],
+  trapezoid_koh: [0.50031, 0.500298, 0.500219, 0.499089, 0.494422, 0.48334, 0.463734, 0.439557, 0.414565, 0.384683, 0.355045, 0.324496, 0.298156, 0.276608, 0.273811],
+} as const;
