@@ -54,7 +54,7 @@ const STATUS_TONE: Record<ReviewFlagItem["status"], string> = {
   must_fix: "border-halt-600 bg-halt-100 text-halt-800",
   fixed: "border-stream-600 bg-stream-50 text-stream-800",
 };
-const SEVERITY_WORDS: Record<string, string> = { block: "Blocks", warn: "Warning", info: "Note" };
+const SEVERITY_WORDS: Record<string, string> = { block: "Blocks", warn: "Warning", info: "Note", earlier: "Earlier flag" };
 
 function Hidden({ where, extra = {} }: { where: ReviewWhere; extra?: Record<string, string | number> }) {
   return (
@@ -136,7 +136,11 @@ function FlagRow({ flag, where, version, canDispose, selected, onSelect }: { fla
           </p>
           {flag.message ? <p className="mt-1 text-xs text-ink-700">{flag.message}</p> : null}
         </div>
-        <span className={`shrink-0 rounded border px-2 py-0.5 text-xs font-semibold ${STATUS_TONE[flag.status]}`}>{STATUS_WORDS[flag.status]}</span>
+        {flag.status === "open" && flag.severity !== "block" ? (
+          <span className="shrink-0 rounded border border-ink-300 bg-ink-50 px-2 py-0.5 text-xs font-semibold text-ink-700">No decision needed</span>
+        ) : (
+          <span className={`shrink-0 rounded border px-2 py-0.5 text-xs font-semibold ${STATUS_TONE[flag.status]}`}>{STATUS_WORDS[flag.status]}</span>
+        )}
       </div>
       {flag.decision ? (
         <p className="mt-2 rounded bg-ink-50 px-2 py-1 text-xs text-ink-800">

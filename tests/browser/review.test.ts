@@ -77,6 +77,7 @@ describe("review and sign-off, end to end", () => {
     // 1. The designer submits with a note.
     await designer.goto(reviewUrl);
     expect(await statusOf(designer)).toBe("draft");
+    await designer.getByTestId("chip-drawing").waitFor();
     await snap(designer, "review-draft-1440");
     const steps = designer.getByTestId("review-steps");
     await steps.getByLabel("What changed and why").fill("First cut of the splitter, driven hard to find the limits.");

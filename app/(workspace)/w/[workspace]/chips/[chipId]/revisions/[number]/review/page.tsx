@@ -76,7 +76,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ workspa
       code: item.code ?? "",
       title: `${describeFlagKey(item.flagKey)} — no longer raised`,
       message: "The analysis now under review does not raise this flag.",
-      severity: "info",
+      severity: "earlier",
       family: item.code?.startsWith("fab_") ? "fabrication" : "regime",
       value: d.value,
       threshold: null,
