@@ -88,8 +88,9 @@ export function evaluateFabricationFlags(network: ChannelNetwork, conditions: Co
   }
   const reach = Math.max(tSpace, wallReach) + widest;
   const boxes = paths.map((p) => ({ minX: Math.min(...p.map((q) => q[0])), minY: Math.min(...p.map((q) => q[1])), maxX: Math.max(...p.map((q) => q[0])), maxY: Math.max(...p.map((q) => q[1])) }));
-  const span = Math.max(network.bounds.maxXM - network.bounds.minXM, network.bounds.maxYM - network.bounds.minYM, 1e-6);
-  const cell = Math.max(reach * 4, span / Math.max(1, Math.sqrt(network.segments.length)));
+  // Grid cells about the size of a typical segment (but at least twice the reach): few cells per segment, few segments per cell.
+  const sizes = boxes.map((b) => Math.max(b.maxX - b.minX, b.maxY - b.minY)).sort((a, b) => a - b);
+  const cell = Math.max(reach * 2, sizes.length ? sizes[Math.floor(sizes.length / 2)] : reach * 2, 1e-9);
   for (const [i, j] of candidatePairs(boxes, reach, cell)) {
     if (related(i, j)) continue;
     const a = network.segments[i];

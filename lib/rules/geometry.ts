@@ -66,15 +66,22 @@ export function polylineToRingDistance(p: Pt[], ring: Pt[]): number {
 
 /** Uniform grid over axis-aligned boxes: returns candidate pairs (i < j) whose boxes, grown by `reachM`, share a cell. */
 export function candidatePairs(boxes: { minX: number; minY: number; maxX: number; maxY: number }[], reachM: number, cellM: number): [number, number][] {
-  const cells = new Map<string, number[]>();
+  const cells = new Map<number, number[]>();
+  // Numeric cell keys (x·2²⁶ + y, both offset to be positive) are much faster than strings.
+  let gx0 = Infinity;
+  let gy0 = Infinity;
+  for (const b of boxes) {
+    gx0 = Math.min(gx0, b.minX - reachM);
+    gy0 = Math.min(gy0, b.minY - reachM);
+  }
   boxes.forEach((b, i) => {
-    const x0 = Math.floor((b.minX - reachM) / cellM);
-    const x1 = Math.floor((b.maxX + reachM) / cellM);
-    const y0 = Math.floor((b.minY - reachM) / cellM);
-    const y1 = Math.floor((b.maxY + reachM) / cellM);
+    const x0 = Math.floor((b.minX - reachM - gx0) / cellM);
+    const x1 = Math.floor((b.maxX + reachM - gx0) / cellM);
+    const y0 = Math.floor((b.minY - reachM - gy0) / cellM);
+    const y1 = Math.floor((b.maxY + reachM - gy0) / cellM);
     for (let x = x0; x <= x1; x++) {
       for (let y = y0; y <= y1; y++) {
-        const key = `${x},${y}`;
+        const key = x * 67108864 + y;
         const list = cells.get(key);
         if (list) list.push(i);
         else cells.set(key, [i]);
