@@ -148,6 +148,32 @@ describe("closed-form networks", () => {
   });
 });
 
+describe("totals", () => {
+  it("path residence follows the flow to each outlet and adds segment residences; totals add volumes and inflows", () => {
+    // IN → J (1 cm), J → OUT1 (1 cm), J → OUT2 (3 cm), all 100 × 50 µm, both outlets at 0 Pa.
+    const net = buildNetwork({
+      nodes: { i: [0, 0], j: [1e-2, 0], a: [2e-2, 0], b: [1e-2, 3e-2] },
+      ports: { IN: "i", OUT1: "a", OUT2: "b" },
+      segments: [
+        { from: "i", to: "j", lengthM: 1e-2, widthM: W, depthM: H },
+        { from: "j", to: "a", lengthM: 1e-2, widthM: W, depthM: H },
+        { from: "j", to: "b", lengthM: 3e-2, widthM: W, depthM: H },
+      ],
+    });
+    const h = solveHydraulics(net, { fluid: water25, ports: { IN: { flow: "8 uL/min" }, OUT1: { pressure: 0 }, OUT2: { pressure: 0 } } } as Conditions);
+    const [s0, s1, s2] = h.segments;
+    // Equal outlet pressures: the split is inverse to length, 3:1 (closed form for parallel resistances).
+    expect(s1.flowM3PerS / s2.flowM3PerS).toBeCloseTo(3, 10);
+    const byOutlet = Object.fromEntries(h.totals.pathResidence.map((p) => [p.to, p.residenceS]));
+    expect(byOutlet.OUT1).toBeCloseTo(s0.residenceS + s1.residenceS, 12);
+    expect(byOutlet.OUT2).toBeCloseTo(s0.residenceS + s2.residenceS, 12);
+    expect(h.totals.totalFlowM3PerS).toBeCloseTo(8e-9 / 60, 20);
+    expect(h.totals.totalVolumeM3).toBeCloseTo(W * H * 5e-2, 20);
+    expect(h.totals.meanResidenceS).toBeCloseTo((W * H * 5e-2) / (8e-9 / 60), 9);
+    expect(h.totals.maxReynolds.segment).toBe(s0.id);
+  });
+});
+
 describe("worked example: 100 µm × 50 µm channel, water at 25 °C, 10 µL/min, fluorescein", () => {
   const net = buildNetwork({
     nodes: { a: [0, 0], b: [2e-2, 0] },
