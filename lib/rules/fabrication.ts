@@ -39,8 +39,11 @@ export function evaluateFabricationFlags(network: ChannelNetwork, conditions: Co
     const at = mid(paths[k]);
     const wMin = minWidth(seg);
     const wMax = maxWidth(seg);
-    if (wMin < tWidth) {
-      flags.push(makeFlag("fab_min_width", { target, at, value: wMin, threshold: tWidth, source: process.sources.minFeature, message: `Segment ${seg.id} is ${um(wMin)} wide, below the ${um(tWidth)} that ${maskWords} resolves for ${process.label}. It will print wider, ragged or not at all. Widen it, or use a finer mask.` }));
+    // An isotropic etch widens the mask line by twice the depth (Iliescu et al. 2012), so the mask line is w − 2d.
+    const maskLine = seg.section === "isotropic_etch" ? wMin - 2 * seg.depthM : wMin;
+    if (maskLine < tWidth) {
+      const what = seg.section === "isotropic_etch" ? `needs a mask line of ${um(Math.max(maskLine, 0))} (its ${um(wMin)} top width minus twice the ${um(seg.depthM)} depth)` : `is ${um(wMin)} wide`;
+      flags.push(makeFlag("fab_min_width", { target, at, value: maskLine, threshold: tWidth, source: process.sources.minFeature, message: `Segment ${seg.id} ${what}, below the ${um(tWidth)} that ${maskWords} resolves for ${process.label}. It will print wider, ragged or not at all. Widen it, or use a finer mask.` }));
     }
     if (seg.section === "circular") return;
     const depth = seg.depthM;

@@ -191,6 +191,15 @@ describe("fabrication rules", () => {
     expect(fab(line({ widthM: 40e-6, depthM: 30e-6, section: "isotropic_etch" }), "glass_wet_etch").find((x) => x.code === "fab_aspect_max")?.severity).toBe("block");
   });
 
+  // Isotropic etch: mask line = top width − 2·depth (REFERENCES §6); 60 µm top at 25 µm depth needs a 10 µm line,
+  // which a chrome mask (~1 µm) resolves and a transparency (≥ 20 µm) does not.
+  it("checks a wet-etched channel's mask line, not its etched width", () => {
+    const net = line({ widthM: 60e-6, depthM: 25e-6, section: "isotropic_etch" });
+    expect(codes(fab(net, "glass_wet_etch"))).not.toContain("fab_min_width");
+    const f = fab(net, "glass_wet_etch", { mask: "transparency" }).find((x) => x.code === "fab_min_width");
+    expect(f?.value).toBeCloseTo(10e-6, 12);
+  });
+
   it("warns when the drawn section is not what the process makes", () => {
     expect(codes(fab(line({ widthM: 100e-6, depthM: 20e-6 }), "glass_wet_etch"))).toContain("fab_profile");
     expect(codes(fab(line({ widthM: 100e-6, depthM: 20e-6, section: "isotropic_etch" }), "glass_wet_etch"))).not.toContain("fab_profile");
