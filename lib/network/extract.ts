@@ -31,8 +31,6 @@ export interface ExtractOptions {
 
 interface Work {
   p: Piece;
-  /** Bounds [minX, minY, maxX, maxY], drawing units. */
-  box: [number, number, number, number];
   len: number;
   layer: ResolvedLayer;
   src: number;
@@ -135,7 +133,7 @@ const scratch: number[] = [];
 /** Cut away the parts of a piece inside any port circle. */
 function trimByPorts(w: Work, ports: PortCircle[], grid: StaticGrid | null): Work[] | null {
   if (!grid) return null;
-  const [minX, minY, maxX, maxY] = w.box;
+  const [minX, minY, maxX, maxY] = bboxOf(w.p);
   const hits = grid.queryInto(minX, minY, maxX, maxY, scratch);
   if (hits.length === 0) return null;
   let parts: Work[] = [w];
@@ -159,7 +157,7 @@ function trimByPorts(w: Work, ports: PortCircle[], grid: StaticGrid | null): Wor
         else {
           changedAny = true;
           const p = subPiece(part.p, ta, tb);
-          next.push({ ...part, p, box: bboxOf(p), len: part.len * (tb - ta) });
+          next.push({ ...part, p, len: part.len * (tb - ta) });
         }
       }
     }
@@ -168,25 +166,29 @@ function trimByPorts(w: Work, ports: PortCircle[], grid: StaticGrid | null): Wor
   return changedAny ? parts : null;
 }
 
-function chooseCellSize(works: Work[], snap: number): number {
-  if (works.length === 0) return 1;
+/** Grid cell edge from the pieces' boxes (minX, minY, maxX, maxY per piece): their mean size, within sane bounds. */
+function chooseCellSize(boxes: Float64Array, snap: number): number {
+  const n = boxes.length / 4;
+  if (n === 0) return 1;
   let sum = 0;
   let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
-  for (const w of works) {
-    const b = w.box;
-    sum += Math.max(b[2] - b[0], b[3] - b[1]);
-    minX = Math.min(minX, b[0]); minY = Math.min(minY, b[1]); maxX = Math.max(maxX, b[2]); maxY = Math.max(maxY, b[3]);
+  for (let i = 0; i < n; i++) {
+    const x0 = boxes[4 * i], y0 = boxes[4 * i + 1], x1 = boxes[4 * i + 2], y1 = boxes[4 * i + 3];
+    sum += Math.max(x1 - x0, y1 - y0);
+    if (x0 < minX) minX = x0;
+    if (y0 < minY) minY = y0;
+    if (x1 > maxX) maxX = x1;
+    if (y1 > maxY) maxY = y1;
   }
   const extent = Math.max(maxX - minX, maxY - minY, snap * 4, 1e-300);
-  // The mean piece size: most pieces then touch one to four cells.
-  return Math.max(sum / works.length, extent / 2048, snap * 4, extent * 1e-9);
+  return Math.max(sum / n, extent / 2048, snap * 4, extent * 1e-9);
 }
 
 /**
  * Split parameters for every piece: T-junctions and crossings. Line coordinates are copied into typed
  * arrays first: the pair loop then reads contiguous memory, and lines (the common case) need no allocation.
  */
-function findSplits(works: Work[], cellSize: number, snap: number): (number[] | null)[] {
+function findSplits(works: Work[], snap: number): (number[] | null)[] {
   const n = works.length;
   const splits: (number[] | null)[] = new Array(n).fill(null);
   const add = (i: number, t: number) => {
@@ -195,6 +197,10 @@ function findSplits(works: Work[], cellSize: number, snap: number): (number[] | 
     else splits[i] = [t];
   };
   const isLine = new Uint8Array(n);
+  // Arcs: centre and radius, for a cheap distance test before any angle is computed.
+  const CX = new Float64Array(n);
+  const CY = new Float64Array(n);
+  const R = new Float64Array(n);
   const X0 = new Float64Array(n);
   const Y0 = new Float64Array(n);
   const X1 = new Float64Array(n);
@@ -207,18 +213,23 @@ function findSplits(works: Work[], cellSize: number, snap: number): (number[] | 
     if (p.kind === "line") {
       isLine[i] = 1;
       X0[i] = p.x0; Y0[i] = p.y0; X1[i] = p.x1; Y1[i] = p.y1;
+      // Boxes grown by the snap tolerance, so pieces that nearly touch are paired too.
+      boxes[4 * i] = Math.min(p.x0, p.x1) - snap;
+      boxes[4 * i + 1] = Math.min(p.y0, p.y1) - snap;
+      boxes[4 * i + 2] = Math.max(p.x0, p.x1) + snap;
+      boxes[4 * i + 3] = Math.max(p.y0, p.y1) + snap;
     } else {
       const s = startOf(p);
       const e = endOf(p);
       X0[i] = s.x; Y0[i] = s.y; X1[i] = e.x; Y1[i] = e.y;
+      CX[i] = p.cx; CY[i] = p.cy; R[i] = p.r;
+      const b = bboxOf(p);
+      boxes[4 * i] = b[0] - snap;
+      boxes[4 * i + 1] = b[1] - snap;
+      boxes[4 * i + 2] = b[2] + snap;
+      boxes[4 * i + 3] = b[3] + snap;
     }
     L[i] = w.len;
-    // Boxes grown by the snap tolerance, so pieces that nearly touch are paired too.
-    const b = w.box;
-    boxes[4 * i] = b[0] - snap;
-    boxes[4 * i + 1] = b[1] - snap;
-    boxes[4 * i + 2] = b[2] + snap;
-    boxes[4 * i + 3] = b[3] + snap;
   }
   const interior = (i: number, t: number) => t * L[i] > snap && (1 - t) * L[i] > snap;
   const snap2 = snap * snap;
@@ -236,10 +247,12 @@ function findSplits(works: Work[], cellSize: number, snap: number): (number[] | 
       if (ex * ex + ey * ey <= snap2 && interior(j, t)) add(j, t);
       return;
     }
+    const dc = Math.sqrt((x - CX[j]) * (x - CX[j]) + (y - CY[j]) * (y - CY[j])) - R[j];
+    if (dc > snap || dc < -snap) return;
     const pr = project(works[j].p, x, y);
     if (pr.dist <= snap && interior(j, pr.t)) add(j, pr.t);
   };
-  const grid = new StaticGrid(cellSize, boxes);
+  const grid = new StaticGrid(chooseCellSize(boxes, snap), boxes);
   grid.forEachOverlappingPair(boxes, (i, j) => {
     if (isLine[i] && isLine[j]) {
       const rx = X1[i] - X0[i];
@@ -407,7 +420,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
         if (!(len > 0)) continue;
         const box = bboxOf(p);
         grow(box);
-        works.push({ p, box, len, layer, src, curveR: e.minCurveRadius });
+        works.push({ p, len, layer, src, curveR: e.minCurveRadius });
       }
     }
   });
@@ -456,7 +469,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
 
   stage("ports and trimming");
   // T-junctions and crossings.
-  const splits = findSplits(trimmed, chooseCellSize(trimmed, snap), snap);
+  const splits = findSplits(trimmed, snap);
   stage("crossings and T-junctions");
   const pieces: Work[] = [];
   trimmed.forEach((w, i) => {
@@ -471,7 +484,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       if ((t - prev) * w.len <= snap && t !== 1) continue;
       if (t - prev <= 0) continue;
       const p = subPiece(w.p, prev, t);
-      pieces.push({ ...w, p, box: w.box, len: w.len * (t - prev) });
+      pieces.push({ ...w, p, len: w.len * (t - prev) });
       prev = t;
     }
   });
@@ -509,7 +522,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
 
   stage("snap endpoints");
   // Duplicates and zero-length pieces.
-  const keep: boolean[] = new Array(pieces.length).fill(true);
+  const keep = new Uint8Array(pieces.length).fill(1);
   // Pieces by their (unordered) pair of end nodes, chained per pair: only pieces between the same two nodes can be copies.
   const pairHash = new CellHash(pieces.length);
   const pairHead = new Int32Array(pieces.length).fill(-1);
@@ -519,7 +532,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     const a = uf.find(2 * i);
     const b = uf.find(2 * i + 1);
     if (a === b && w.len <= 2 * snap) {
-      keep[i] = false;
+      keep[i] = 0;
       return;
     }
     const slot = a < b ? pairHash.slot(a, b, true) : pairHash.slot(b, a, true);
@@ -535,7 +548,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       pairHead[slot] = i;
       return;
     }
-    keep[i] = false;
+    keep[i] = 0;
     const srcKey = `${Math.min(pieces[dup].src, w.src)}:${Math.max(pieces[dup].src, w.src)}`;
     const m = pointAt(w.p, 0.5);
     const d = dupPairs.get(srcKey);
@@ -626,8 +639,14 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   stage("graph and components");
   // Node kinds: 0 pass-through (no node), else an index into KINDS.
   const KINDS: NodeKind[] = ["port", "port", "junction", "dead_end", "change"];
-  const widthCache = pieces.map((w) => widthsOf(w, mpu));
-  const endWidth = (k: number) => widthCache[k >> 1][k & 1];
+  // End widths of every piece (metres): index 2i is piece i's start, 2i + 1 its end.
+  const widthCache = new Float64Array(pieces.length * 2);
+  pieces.forEach((w, i) => {
+    const [a, b] = widthsOf(w, mpu);
+    widthCache[2 * i] = a;
+    widthCache[2 * i + 1] = b;
+  });
+  const endWidth = (k: number) => widthCache[k];
   const kindOf = new Int8Array(nAll);
   const stops: number[] = [];
   for (let root = 0; root < nAll; root++) {
@@ -739,7 +758,7 @@ function makeSegment(
   chain: number[],
   chainFwd: boolean[],
   pieces: Work[],
-  widthCache: [number, number][],
+  widthCache: Float64Array,
   mpu: number,
 ): NetworkSegment {
   const layer = pieces[chain[0]].layer;
@@ -756,7 +775,8 @@ function makeSegment(
     const w = pieces[chain[c]];
     const fwd = chainFwd[c];
     const p = w.p;
-    const [a, b] = widthCache[chain[c]];
+    const a = widthCache[2 * chain[c]];
+    const b = widthCache[2 * chain[c] + 1];
     const w0 = fwd ? a : b;
     const w1 = fwd ? b : a;
     if (path.length === 0) {

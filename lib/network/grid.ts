@@ -76,11 +76,15 @@ export class StaticGrid {
     }
     this.cellSize = size;
     this.inv = 1 / size;
+    const inv = this.inv;
     this.hash = new CellHash(total);
     const cellOf = new Int32Array(total);
     let t = 0;
     for (let i = 0; i < n; i++) {
-      const [x0, y0, x1, y1] = this.range(boxes[4 * i], boxes[4 * i + 1], boxes[4 * i + 2], boxes[4 * i + 3]);
+      const x0 = clampCell(Math.floor(boxes[4 * i] * inv + GRID_PHASE));
+      const y0 = clampCell(Math.floor(boxes[4 * i + 1] * inv + GRID_PHASE));
+      const x1 = clampCell(Math.floor(boxes[4 * i + 2] * inv + GRID_PHASE));
+      const y1 = clampCell(Math.floor(boxes[4 * i + 3] * inv + GRID_PHASE));
       for (let ix = x0; ix <= x1; ix++) for (let iy = y0; iy <= y1; iy++) cellOf[t++] = this.hash.slot(ix, iy, true);
     }
     this.offset = new Int32Array(this.hash.size + 1);
@@ -90,18 +94,12 @@ export class StaticGrid {
     this.items = new Int32Array(total);
     t = 0;
     for (let i = 0; i < n; i++) {
-      const [x0, y0, x1, y1] = this.range(boxes[4 * i], boxes[4 * i + 1], boxes[4 * i + 2], boxes[4 * i + 3]);
+      const x0 = clampCell(Math.floor(boxes[4 * i] * inv + GRID_PHASE));
+      const y0 = clampCell(Math.floor(boxes[4 * i + 1] * inv + GRID_PHASE));
+      const x1 = clampCell(Math.floor(boxes[4 * i + 2] * inv + GRID_PHASE));
+      const y1 = clampCell(Math.floor(boxes[4 * i + 3] * inv + GRID_PHASE));
       for (let ix = x0; ix <= x1; ix++) for (let iy = y0; iy <= y1; iy++) this.items[fill[cellOf[t++]]++] = i;
     }
-  }
-
-  private range(minX: number, minY: number, maxX: number, maxY: number): [number, number, number, number] {
-    return [
-      clampCell(Math.floor(minX * this.inv + GRID_PHASE)),
-      clampCell(Math.floor(minY * this.inv + GRID_PHASE)),
-      clampCell(Math.floor(maxX * this.inv + GRID_PHASE)),
-      clampCell(Math.floor(maxY * this.inv + GRID_PHASE)),
-    ];
   }
 
   /**
