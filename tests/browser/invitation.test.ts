@@ -35,7 +35,7 @@ describe("invitation by e-mail", () => {
 
       // The invitee opens the link in their own browser profile.
       await invitee.page.goto(new URL(link!).pathname);
-      await expect(invitee.page.getByRole("heading", { name: "Join Brookmere Biofluidics" }).isVisible()).resolves.toBe(true);
+      await invitee.page.getByRole("heading", { name: "Join Brookmere Biofluidics" }).waitFor();
       await invitee.page.getByLabel("Your name").fill("Rosalind Ferro");
       await invitee.page.getByLabel("Choose a password").fill("short");
       await invitee.page.getByLabel("Type it again").fill("short");
@@ -57,7 +57,7 @@ describe("invitation by e-mail", () => {
 
       // The link worked once.
       await invitee.page.goto(new URL(link!).pathname);
-      await expect(invitee.page.getByText("This invitation has already been used.").isVisible()).resolves.toBe(true);
+      await invitee.page.getByText("This invitation has already been used.").waitFor();
 
       // The admin now sees the new member and the accepted invitation.
       await admin.page.goto("/w/brookmere/admin/members");

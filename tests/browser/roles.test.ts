@@ -48,8 +48,8 @@ describe("the shell for each demo role", () => {
           const rows = (await page.getByTestId("member-row").allTextContents()).join(" ");
           for (const r of ROLES) expect(rows).toContain(r.name);
         } else {
-          await expect(page.getByRole("heading", { name: "You can’t open this page" }).isVisible()).resolves.toBe(true);
-          await expect(page.getByText("This needs the admin role in this workspace.").isVisible()).resolves.toBe(true);
+          await page.getByRole("heading", { name: "You can’t open this page" }).waitFor();
+          await page.getByText("This needs the admin role in this workspace.").waitFor();
           expect(await page.getByTestId("member-row").count()).toBe(0);
         }
         // Halvard Microsystems is another company: only the shared fab liaison belongs.
@@ -57,7 +57,7 @@ describe("the shell for each demo role", () => {
         if (role.email === "fab@brookmere.test") {
           await expect(page.getByRole("heading", { level: 1 }).textContent()).resolves.toBe("Halvard Microsystems");
         } else {
-          await expect(page.getByText("You are not a member of that workspace.").isVisible()).resolves.toBe(true);
+          await page.getByText("You are not a member of that workspace.").waitFor();
         }
       } finally {
         await context.close();
@@ -97,7 +97,7 @@ describe("the shell for each demo role", () => {
       await page.waitForURL(/\/w\/brookmere\/admin\/invitations$/);
       await page.getByRole("button", { name: "Sign out" }).click();
       await page.waitForURL(/\/sign-in/);
-      await expect(page.getByText("You are signed out.").isVisible()).resolves.toBe(true);
+      await page.getByText("You are signed out.").waitFor();
       await page.goto("/w/brookmere");
       await page.waitForURL(/\/sign-in/);
     } finally {
