@@ -117,7 +117,7 @@ export function flattenNurbs(ctrl: Pt[], weights: number[], knots: number[], deg
   return out;
 }
 
-/** Radius of the circle through three points; Infinity when collinear (Heron-free form: abc / 4·area). */
+/** Radius of the circle through three points, R = abc / (4·area) (the triangle's circumradius); Infinity when collinear. */
 export function circumradius(a: Pt, b: Pt, c: Pt): number {
   const ab = Math.hypot(b.x - a.x, b.y - a.y);
   const bc = Math.hypot(c.x - b.x, c.y - b.y);

@@ -271,6 +271,7 @@ function layerOf(entity: AnyEntity, parentLayer: string | null): string {
   return own === "0" && parentLayer !== null ? parentLayer : own;
 }
 
+/** MTEXT inline formatting codes (\P, \f…;, braces…) removed, as the DXF reference lists them; a few regexes, no package needed. */
 function stripMtext(text: string): string {
   return text
     .replace(/\\P/g, " ")
