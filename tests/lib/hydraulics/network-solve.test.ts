@@ -40,6 +40,19 @@ describe("network solve vs SciPy spsolve (tests/fixtures/networks/generate.py)",
     expect(sol.residualRel).toBeLessThan(1e-10);
   });
 
+  it("satisfies Kirchhoff's current law at every node without a port on the SciPy random mesh", () => {
+    const c = fixture.cases.find((x) => x.name.startsWith("random_mesh"))!;
+    const sol = solveGraph(toGraph(c));
+    const net = new Float64Array(c.nodes);
+    c.edges.forEach(([a, b], k) => {
+      net[a] -= sol.segmentFlowM3PerS[k];
+      net[b] += sol.segmentFlowM3PerS[k];
+    });
+    const portNodes = new Set([...Object.values(c.pressurePorts), ...Object.values(c.flowPorts)].map(([n]) => n));
+    const qMax = Math.max(...Array.from(sol.segmentFlowM3PerS).map(Math.abs));
+    for (let i = 0; i < c.nodes; i++) if (!portNodes.has(i)) expect(Math.abs(net[i])).toBeLessThan(1e-9 * qMax);
+  });
+
   it("conserves flow: port flows sum to zero on the SciPy grid case (Kirchhoff)", () => {
     const c = fixture.cases[0];
     const sol = solveGraph(toGraph(c));
@@ -145,6 +158,31 @@ describe("closed-form networks", () => {
     expect(h.ports[1].drive).toBe("open");
     expect(h.ports[1].pressurePa).toBe(0);
     expect(h.ports[0].pressurePa / ((1e-9 / 60) * r(1e-2))).toBeCloseTo(1, 12);
+  });
+});
+
+describe("tapered segments", () => {
+  it("a taper's resistance is the integral along it and its peak wall shear is at the narrow end", () => {
+    const net = buildNetwork({
+      nodes: { a: [0, 0], b: [1e-2, 0] },
+      ports: { IN: "a", OUT: "b" },
+      segments: [{ from: "a", to: "b", lengthM: 1e-2, widthM: 200e-6, endWidthM: 100e-6, depthM: H }],
+    });
+    const h = solveHydraulics(net, { fluid: water25, ports: { IN: { flow: "5 uL/min" }, OUT: { pressure: 0 } } } as Conditions);
+    const mu = waterViscosityPaS(298.15);
+    // Simpson's rule with 2000 panels on R' = μ·r(w(s)) as an independent quadrature of the same integrand.
+    const n = 2000;
+    let sum = 0;
+    for (let k = 0; k <= n; k++) {
+      const w = 200e-6 - (100e-6 * k) / n;
+      const wt = k === 0 || k === n ? 1 : k % 2 ? 4 : 2;
+      sum += wt * rectangleResistanceFactor(w, H);
+    }
+    const simpson = (mu * sum * (1e-2 / n)) / 3;
+    expect(h.segments[0].resistancePaSPerM3 / simpson).toBeCloseTo(1, 9);
+    // Peak shear at the 100 µm end: series factor × μQ (REFERENCES §7 ratio 1.3557 at h/w = 0.5).
+    const q = 5e-9 / 60;
+    expect(h.segments[0].wallShearPa / (1.3557 * (6 * mu * q) / (100e-6 * H * H))).toBeCloseTo(1, 3);
   });
 });
 
