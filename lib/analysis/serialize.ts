@@ -52,7 +52,7 @@ export interface AnalyzeSegmentJson {
   diffusion_time_s?: number;
   /** ≈ Pe·w = |U|·w²/D, length the flow travels while the solute diffuses across (Squires & Quake 2005). */
   mixing_length_m?: number;
-  /** Hydrodynamic entrance length, Durst et al. (2005) correlation on D_h. */
+  /** Hydrodynamic entrance length, Durst et al. (2005): pipe correlation on D for round channels, plane-channel on the smaller of width and depth otherwise. */
   entrance_length_m?: number;
 }
 

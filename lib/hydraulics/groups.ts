@@ -52,10 +52,11 @@ export function mixingLengthM(speedMPerS: number, widthM: number, diffusivityM2P
 
 /**
  * Hydrodynamic entrance length, m. Durst, Ray, Ünsal & Bayoumi, J. Fluids Eng. 127, 1154 (2005)
- * (correlations from memory, REFERENCES §5): pipe L/D = [0.619^1.6 + (0.0567 Re)^1.6]^(1/1.6);
- * plane channel L/H = [0.631^1.6 + (0.0442 Re)^1.6]^(1/1.6). Channels use D_h for H and Re on D_h.
+ * (correlations from memory, REFERENCES §5): pipe L/D = [0.619^1.6 + (0.0567 Re_D)^1.6]^(1/1.6);
+ * plane channel L/H = [0.631^1.6 + (0.0442 Re_H)^1.6]^(1/1.6), H the gap between the plates and Re_H on it.
+ * Inputs: the Reynolds number on `scaleM` (D for a pipe, H for a channel) and that scale.
  */
-export function entranceLengthM(reynolds: number, hydraulicDiameterM: number, kind: "pipe" | "channel"): number {
+export function entranceLengthM(reynoldsOnScale: number, scaleM: number, kind: "pipe" | "channel"): number {
   const [a, b] = kind === "pipe" ? [0.619, 0.0567] : [0.631, 0.0442];
-  return hydraulicDiameterM * (a ** 1.6 + (b * Math.abs(reynolds)) ** 1.6) ** (1 / 1.6);
+  return scaleM * (a ** 1.6 + (b * Math.abs(reynoldsOnScale)) ** 1.6) ** (1 / 1.6);
 }

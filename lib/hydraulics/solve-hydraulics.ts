@@ -162,7 +162,7 @@ export function solveHydraulics(network: ChannelNetwork, conditions: Conditions)
       residenceS: flowing ? sec.volumeM3 / Math.abs(q) : Infinity,
       diffusionTimeS: diffusionTimeS(w, diff),
       mixingLengthM: mixingLengthM(speed, w, diff),
-      entranceLengthM: entranceLengthM(re, dh, s.section === "circular" ? "pipe" : "channel"),
+      entranceLengthM: developingLength(s.section, re, dh, w, s.depthM, speed, rho, mu),
     };
   });
 
@@ -192,6 +192,16 @@ export function solveHydraulics(network: ChannelNetwork, conditions: Conditions)
   };
   result.totals = computeTotals(network, result);
   return result;
+}
+
+/**
+ * Entrance length by Durst et al. (2005): the pipe correlation on D for round channels; the plane-channel one for
+ * the rest, with H the smaller of width and depth (the gap the profile develops across) and Re on H.
+ */
+function developingLength(section: string, re: number, dh: number, widthM: number, depthM: number, speed: number, rho: number, mu: number): number {
+  if (section === "circular") return entranceLengthM(re, dh, "pipe");
+  const gap = Math.min(widthM, depthM);
+  return entranceLengthM(reynoldsNumber(rho, speed, gap, mu), gap, "channel");
 }
 
 function emptyTotals(): HydraulicsTotals {

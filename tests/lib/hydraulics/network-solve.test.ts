@@ -247,9 +247,10 @@ describe("worked example: 100 µm × 50 µm channel, water at 25 °C, 10 µL/min
     expect(s.diffusionTimeS).toBeCloseTo(23.5294, 3);
     expect(h.totals.pathResidence).toEqual([{ from: "IN", to: "OUT", residenceS: s.residenceS }]);
   });
-  // Durst et al. (2005) channel correlation (REFERENCES §5, from memory): L/D_h = [0.631^1.6 + (0.0442 × 2.48945)^1.6]^(1/1.6)
-  // = [0.478682 + 0.029271]^0.625 = 0.507953^0.625 = 0.654847, so L_e = 0.654847 × 66.6667 µm = 43.656 µm.
-  it("entrance length 43.66 µm (Durst et al. 2005, from memory)", () => expect(s.entranceLengthM / 43.656e-6).toBeCloseTo(1, 4));
+  // Durst et al. (2005) plane-channel correlation (REFERENCES §5, from memory) on the gap H = depth = 50 µm:
+  // Re_H = 997.047 × 0.0333333 × 5e-5 / 8.9002e-4 = 1.86709; L/H = [0.631^1.6 + (0.0442 × 1.86709)^1.6]^(1/1.6)
+  // = [0.478682 + 0.018473]^0.625 = 0.497155^0.625 = 0.646111, so L_e = 0.646111 × 50 µm = 32.306 µm.
+  it("entrance length 32.31 µm (Durst et al. 2005, from memory)", () => expect(s.entranceLengthM / 32.3056e-6).toBeCloseTo(1, 4));
   // Bond number at a port of radius 0.5 mm: Bo = (997.047 − 1.204) × 9.80665 × (0.5e-3)² / 0.071972 = 2.44143e-3 / 0.071972 = 0.0339225.
   it("Bond number at a 0.5 mm port = 0.0339", () => expect(h.ports[0].bond / 0.0339225).toBeCloseTo(1, 4));
 });
