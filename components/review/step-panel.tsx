@@ -59,7 +59,7 @@ function AnalysisSelect({ candidates, label, exclude }: { candidates: CandidateA
       <select id={id} name="analysisId" className="field-input text-sm" defaultValue={list[0]?.id}>
         {list.map((c) => (
           <option key={c.id} value={c.id}>
-            {c.name} (analysis {c.id}; {c.flagsBlock} blocking, {c.flagsWarn} warnings)
+            {c.name} (#{c.id}) · {c.flagsBlock} blocking · {c.flagsWarn} warnings
           </option>
         ))}
       </select>
