@@ -6,8 +6,21 @@
 import { z } from "zod";
 import { conditionsSchema } from "@/lib/analysis/conditions";
 import { apiTokenCreateSchema, chipCreateSchema, layerMapSchema, operatingPointFormSchema } from "@/lib/chips/schemas";
+import {
+  clearSchema,
+  commentSchema,
+  disposeFlagSchema,
+  emailPreferencesSchema,
+  markReadSchema,
+  passFluidicsSchema,
+  requestChangesSchema,
+  resolveCommentSchema,
+  submitSchema,
+  updateAnalysisSchema,
+  withdrawSchema,
+} from "@/lib/review/schemas";
 
-type Op = { method: "get" | "post" | "put" | "delete"; path: string; summary: string; body?: z.ZodType; multipart?: Record<string, string>; created?: boolean };
+type Op = { method: "get" | "post" | "put" | "patch" | "delete"; path: string; summary: string; body?: z.ZodType; multipart?: Record<string, string>; created?: boolean };
 
 const OPERATIONS: Op[] = [
   { method: "get", path: "/api/v1/me", summary: "The signed-in user and their workspaces" },
@@ -40,6 +53,22 @@ const OPERATIONS: Op[] = [
     summary: "Stateless analysis: file and conditions in, result out; nothing stored",
     multipart: { file: "the layout, an ASCII DXF", conditions: "the conditions document as JSON text" },
   },
+  { method: "get", path: "/api/v1/revisions/{revisionId}/review", summary: "Review state, your allowed steps, flags and comments" },
+  { method: "post", path: "/api/v1/revisions/{revisionId}/review/submit", summary: "Submit for fluidics review (designer)", body: submitSchema },
+  { method: "post", path: "/api/v1/revisions/{revisionId}/review/analysis", summary: "Put a newer analysis under review (designer)", body: updateAnalysisSchema },
+  { method: "post", path: "/api/v1/revisions/{revisionId}/review/flags", summary: "Waive a flag with a justification, or mark it must-fix (fluidics reviewer)", body: disposeFlagSchema },
+  { method: "post", path: "/api/v1/revisions/{revisionId}/review/pass", summary: "Pass fluidics review (fluidics reviewer)", body: passFluidicsSchema },
+  { method: "post", path: "/api/v1/revisions/{revisionId}/review/request-changes", summary: "Send back with changes requested", body: requestChangesSchema },
+  { method: "post", path: "/api/v1/revisions/{revisionId}/review/clear", summary: "Clear for tape-out with password re-entry (fab liaison)", body: clearSchema },
+  { method: "post", path: "/api/v1/revisions/{revisionId}/review/withdraw", summary: "Withdraw before clearance (uploader)", body: withdrawSchema },
+  { method: "get", path: "/api/v1/revisions/{revisionId}/review/comments", summary: "Comments on the revision" },
+  { method: "post", path: "/api/v1/revisions/{revisionId}/review/comments", summary: "Comment, optionally pinned to a segment or point", body: commentSchema, created: true },
+  { method: "patch", path: "/api/v1/revisions/{revisionId}/review/comments/{commentId}", summary: "Resolve or reopen a comment", body: resolveCommentSchema },
+  { method: "get", path: "/api/v1/revisions/{revisionId}/audit", summary: "The revision's audit trail (?format=json or csv); read-only" },
+  { method: "get", path: "/api/v1/notifications", summary: "Your in-app inbox" },
+  { method: "post", path: "/api/v1/notifications/read", summary: "Mark notifications read", body: markReadSchema },
+  { method: "get", path: "/api/v1/notifications/preferences", summary: "Your e-mail preferences" },
+  { method: "put", path: "/api/v1/notifications/preferences", summary: "Change your e-mail preferences", body: emailPreferencesSchema },
   { method: "get", path: "/api/v1/workspaces/{workspaceId}/tokens", summary: "Your personal API tokens" },
   { method: "post", path: "/api/v1/workspaces/{workspaceId}/tokens", summary: "Create a personal API token (shown once)", body: apiTokenCreateSchema, created: true },
   { method: "delete", path: "/api/v1/tokens/{tokenId}", summary: "Revoke one of your tokens" },
