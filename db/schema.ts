@@ -163,3 +163,6 @@ export * from "./schema-chips";
 
 // Review and sign-off: dispositions, comments, clearances, notifications (issue 7).
 export * from "./schema-review";
+
+// Reports: share links to a revision's brief (issue 8).
+export * from "./schema-reports";
