@@ -1,6 +1,6 @@
 import "server-only";
 /** The audit trail: insert and read only. There is deliberately no update or delete here (and triggers forbid them). */
-import { and, desc, eq } from "drizzle-orm";
+import { and, desc, eq, isNull } from "drizzle-orm";
 import { getDb, type Db } from "@/db";
 import { auditEvents, users } from "@/db/schema";
 import { inWorkspace, type WorkspaceScope } from "./scope";
@@ -62,4 +62,22 @@ export async function listAuditEvents(
     .where(and(...conditions))
     .orderBy(desc(auditEvents.at), desc(auditEvents.id))
     .limit(filter.limit ?? 500);
+}
+
+/** When the user last completed a password reset (from the audit trail), or null. */
+export async function getLastPasswordResetAt(userId: number): Promise<Date | null> {
+  const [row] = await getDb()
+    .select({ at: auditEvents.at })
+    .from(auditEvents)
+    .where(
+      and(
+        isNull(auditEvents.workspaceId),
+        eq(auditEvents.objectType, "user"),
+        eq(auditEvents.objectId, String(userId)),
+        eq(auditEvents.action, "password_reset.completed"),
+      ),
+    )
+    .orderBy(desc(auditEvents.at))
+    .limit(1);
+  return row?.at ?? null;
 }

@@ -1,6 +1,7 @@
 import "server-only";
 import type { NextAuthOptions } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
+import { getLastPasswordResetAt } from "@/db/queries/audit";
 import { getEnv } from "@/lib/env";
 import { DomainError } from "@/lib/errors";
 import { authorizeCredentials, clientAddressFrom } from "./credentials";
@@ -34,6 +35,11 @@ export function getAuthOptions(): NextAuthOptions {
     callbacks: {
       async jwt({ token, user }) {
         if (user) token.sub = user.id;
+        // A password reset ends every session issued before it (whole seconds: JWT iat precision).
+        if (!user && token.sub && typeof token.iat === "number") {
+          const changedAt = await getLastPasswordResetAt(Number(token.sub));
+          if (changedAt && Math.floor(changedAt.getTime() / 1000) > token.iat) return {};
+        }
         // Only the id travels in the token.
         return { sub: token.sub, iat: token.iat, exp: token.exp, jti: token.jti };
       },

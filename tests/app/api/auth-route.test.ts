@@ -22,13 +22,18 @@ import { NextRequest } from "next/server";
 import { GET, POST } from "@/app/api/auth/[...nextauth]/route";
 import { DEMO_PASSWORD } from "@/db/seed";
 import { MAX_ACCOUNT_FAILURES } from "@/lib/auth/rate-limit";
+import { requestPasswordReset, resetPassword } from "@/lib/auth/password-reset";
+import { listOutbox } from "@/db/queries/outbox";
+import { scopeForTrustedCode } from "@/db/queries/scope";
+import type { DemoContext } from "@/db/seed";
 import { dropTempDatabase, useTempDatabase } from "@/tests/support/temp-db";
 
 const base = "http://localhost:3000";
 
+let demo: DemoContext;
 beforeAll(async () => {
   process.env.NEXTAUTH_URL = base;
-  await useTempDatabase();
+  demo = (await useTempDatabase())!;
 });
 afterAll(dropTempDatabase);
 
@@ -86,5 +91,19 @@ describe("next-auth credentials route", () => {
     expect(blocked.status).toBe(401);
     expect(new URL(blocked.url).searchParams.get("error")).toMatch(/Too many failed sign-ins for this account\. Wait \d+ minutes?/);
     expect(current.cookies.has("next-auth.session-token")).toBe(false);
+  });
+
+  it("ends sessions issued before a password reset (OWASP: invalidate sessions on password change, from memory)", async () => {
+    await signIn("designer2@brookmere.test", DEMO_PASSWORD);
+    const before = await (await send("GET", "/api/auth/session", ["session"])).json();
+    expect(before.user?.id).toMatch(/^\d+$/);
+    const admin = scopeForTrustedCode({ userId: demo.users["admin@brookmere.test"], workspaceId: demo.workspaces.brookmere.id, roles: ["admin"] });
+    // Reset a little later than the session was issued (JWT times are whole seconds).
+    const later = new Date(Date.now() + 2000);
+    await requestPasswordReset("designer2@brookmere.test", later);
+    const token = (await listOutbox(admin)).find((m) => m.toAddress === "designer2@brookmere.test")!.text.match(/\/reset-password\/([A-Za-z0-9_-]+)/)![1];
+    await resetPassword(token, "a-fresh-password-7", later);
+    const after = await (await send("GET", "/api/auth/session", ["session"])).json();
+    expect(after.user?.id).toBeUndefined();
   });
 });
