@@ -12,6 +12,7 @@ import { createClient, type Client } from "@libsql/client";
 import { drizzle, type LibSQLDatabase } from "drizzle-orm/libsql";
 import { getEnv } from "@/lib/env";
 import * as schema from "./schema";
+import { serialiseWrites } from "./write-lock";
 
 export type Db = LibSQLDatabase<typeof schema>;
 
@@ -37,6 +38,7 @@ export function getDb(): Db {
   if (held) held.client.close();
   const client = createClient({ url, authToken: env.databaseAuthToken });
   const db = drizzle(client, { schema });
+  if (url.startsWith("file:")) serialiseWrites(client, db);
   globalHolder.__stokelineDb = { url, client, db };
   return db;
 }
