@@ -15,7 +15,7 @@ import {
   type SortingState,
 } from "@tanstack/react-table";
 import Link from "next/link";
-import { usePathname, useRouter, useSearchParams } from "next/navigation";
+import { usePathname, useSearchParams } from "next/navigation";
 import { useMemo, useState } from "react";
 import { Notice } from "@/components/ui/notice";
 import { chipHref, formatWhen, revisionHref } from "./format";
@@ -48,15 +48,17 @@ async function fetchChips(workspaceId: number): Promise<ChipListRow[]> {
 }
 
 export function ChipTable({ workspaceId, slug, initialRows }: { workspaceId: number; slug: string; initialRows: ChipListRow[] }) {
-  const router = useRouter();
   const pathname = usePathname();
   const params = useSearchParams();
   const query = useQuery({ queryKey: chipsQueryKey(workspaceId), queryFn: () => fetchChips(workspaceId), initialData: initialRows });
   const [search, setSearch] = useState(params.get("q") ?? "");
   const sortParam = params.get("sort");
-  const sorting: SortingState = SORTABLE.includes(sortParam as (typeof SORTABLE)[number])
-    ? [{ id: sortParam!, desc: params.get("dir") === "desc" }]
-    : [{ id: "last_activity_at", desc: true }];
+  const descending = params.get("dir") === "desc";
+  // Memoised: a fresh array each render makes the table recompute and re-render without end.
+  const sorting: SortingState = useMemo(
+    () => (SORTABLE.includes(sortParam as (typeof SORTABLE)[number]) ? [{ id: sortParam!, desc: descending }] : [{ id: "last_activity_at", desc: true }]),
+    [sortParam, descending],
+  );
 
   const writeParams = (next: Record<string, string | null>) => {
     const sp = new URLSearchParams(params.toString());
@@ -65,7 +67,8 @@ export function ChipTable({ workspaceId, slug, initialRows }: { workspaceId: num
       else sp.set(k, v);
     }
     const qs = sp.toString();
-    router.replace(qs ? `${pathname}?${qs}` : pathname, { scroll: false });
+    // Search and sort run in the browser: update the address without a server round trip (Next keeps useSearchParams in step).
+    window.history.replaceState(null, "", qs ? `${pathname}?${qs}` : pathname);
   };
 
   const columns = useMemo<ColumnDef<ChipListRow>[]>(
@@ -131,6 +134,7 @@ export function ChipTable({ workspaceId, slug, initialRows }: { workspaceId: num
       if (!needle) return true;
       return `${row.original.name} ${row.original.purpose}`.toLowerCase().includes(needle);
     },
+    autoResetPageIndex: false,
     getCoreRowModel: getCoreRowModel(),
     getSortedRowModel: getSortedRowModel(),
     getFilteredRowModel: getFilteredRowModel(),

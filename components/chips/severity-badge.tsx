@@ -39,7 +39,7 @@ export function SeverityBadge({ severity, count }: { severity: string | null | u
   if (!key) return <span className="text-sm text-ink-500">Not analysed</span>;
   const look = LOOK[key];
   return (
-    <span className={`inline-flex items-center gap-1.5 rounded-full border px-2 py-0.5 text-xs font-semibold ${look.cls}`} data-severity={key}>
+    <span className={`inline-flex items-center gap-1.5 whitespace-nowrap rounded-full border px-2 py-0.5 text-xs font-semibold ${look.cls}`} data-severity={key}>
       <Shape severity={key} />
       {look.label}
       {count !== undefined && key !== "none" ? <span className="font-normal">({count})</span> : null}

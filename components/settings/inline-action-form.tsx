@@ -11,7 +11,8 @@ export function InlineActionForm({
   label,
 }: {
   action: (prev: ActionState, form: FormData) => Promise<ActionState>;
-  children: ReactNode;
+  /** Fields; given the values echoed back after a refused attempt, so React's form reset keeps what was typed. */
+  children: ReactNode | ((values: Record<string, string | string[]> | undefined) => ReactNode);
   submitLabel: string;
   extraButtons?: ReactNode;
   label: string;
@@ -19,7 +20,7 @@ export function InlineActionForm({
   const [state, formAction, pending] = useActionState(action, { status: "idle" } as ActionState);
   return (
     <form action={formAction} className="space-y-2" aria-label={label} noValidate>
-      {children}
+      {typeof children === "function" ? children(state.status === "error" ? state.values : undefined) : children}
       <div className="flex flex-wrap items-center gap-2">
         <button type="submit" className="btn-primary px-3 py-1.5" disabled={pending}>
           {pending ? "Saving…" : submitLabel}

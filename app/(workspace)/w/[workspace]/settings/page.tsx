@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { headers } from "next/headers";
 import { ApiTokens } from "@/components/settings/api-tokens";
 import { FluidForm } from "@/components/settings/fluid-form";
-import { InlineActionForm } from "@/components/settings/inline-action-form";
+import { ProcessLimitsForm, ThresholdForm } from "@/components/settings/override-forms";
 import { AccessDenied } from "@/components/ui/access-denied";
 import { PageHeader } from "@/components/ui/page-header";
 import { listChips } from "@/db/queries/chips";
@@ -222,34 +222,19 @@ export default async function SettingsPage({ params }: { params: Promise<{ works
                   <details className="mt-3">
                     <summary className="cursor-pointer text-sm font-semibold text-stream-700">Set your fab’s limits</summary>
                     <div className="mt-3">
-                      <InlineActionForm action={saveProcessAction} submitLabel="Save limits" label={`Limits for ${p.label}`}>
-                        <input type="hidden" name="workspace" value={slug} />
-                        <input type="hidden" name="processKey" value={p.id} />
-                        <div className="grid gap-3 md:grid-cols-4">
-                          {PROCESS_LIMIT_FIELDS.map((f) => (
-                            <div key={f.key}>
-                              <label htmlFor={`${p.id}-${f.key}`} className="mb-1 block text-xs font-medium text-ink-800">
-                                {f.label}
-                                {f.unit ? ` (${f.unit})` : ""}
-                              </label>
-                              <input
-                                id={`${p.id}-${f.key}`}
-                                name={f.key}
-                                inputMode="decimal"
-                                className="field-input"
-                                defaultValue={o?.values[f.key] !== undefined ? fmt(o.values[f.key] / f.toSi) : ""}
-                                placeholder="default"
-                              />
-                            </div>
-                          ))}
-                        </div>
-                        <div>
-                          <label htmlFor={`${p.id}-note`} className="mb-1 block text-xs font-medium text-ink-800">
-                            Where your numbers come from
-                          </label>
-                          <input id={`${p.id}-note`} name="note" className="field-input" defaultValue={o?.note ?? ""} placeholder="e.g. burst tests on our bonder, May 2026" />
-                        </div>
-                      </InlineActionForm>
+                      <ProcessLimitsForm
+                        action={saveProcessAction}
+                        slug={slug}
+                        processId={p.id}
+                        label={p.label}
+                        note={o?.note ?? ""}
+                        fields={PROCESS_LIMIT_FIELDS.map((f) => ({
+                          key: f.key,
+                          label: f.label,
+                          unit: f.unit,
+                          current: o?.values[f.key] !== undefined ? fmt(o.values[f.key] / f.toSi) : "",
+                        }))}
+                      />
                     </div>
                   </details>
                 ) : null}
@@ -289,32 +274,15 @@ export default async function SettingsPage({ params }: { params: Promise<{ works
                       {r.defaultThreshold === null ? (
                         <span className="text-xs text-ink-500">Set under Process profiles</span>
                       ) : mayThresholds ? (
-                        <InlineActionForm
+                        <ThresholdForm
                           action={saveThresholdAction}
-                          submitLabel="Save"
-                          label={`Threshold for ${r.title}`}
-                          extraButtons={
-                            o ? (
-                              <button type="submit" name="reset" value="1" className="btn-quiet px-3 py-1.5">
-                                Reset
-                              </button>
-                            ) : null
-                          }
-                        >
-                          <input type="hidden" name="workspace" value={slug} />
-                          <input type="hidden" name="ruleCode" value={r.code} />
-                          <div className="flex gap-2">
-                            <input
-                              name="value"
-                              inputMode="decimal"
-                              aria-label={`Workspace threshold for ${r.title} (${r.thresholdUnit})`}
-                              className="field-input w-24"
-                              defaultValue={o ? String(o.value) : ""}
-                              placeholder={String(r.defaultThreshold)}
-                            />
-                            <input name="note" aria-label={`Why, for ${r.title}`} className="field-input w-48" defaultValue={o?.note ?? ""} placeholder="Why" />
-                          </div>
-                        </InlineActionForm>
+                          slug={slug}
+                          ruleCode={r.code}
+                          title={r.title}
+                          unit={r.thresholdUnit}
+                          defaultThreshold={r.defaultThreshold}
+                          current={o ? { value: o.value, note: o.note } : null}
+                        />
                       ) : o ? (
                         <span>
                           <span className="font-medium">{o.value}</span> <span className="text-xs text-ink-600">{o.note}</span>
