@@ -53,7 +53,7 @@ export interface BriefInput {
   };
   dispositions: readonly (FigureDisposition & { byName: string | null })[];
   clearance: null | { byName: string | null; at: Date; fabName: string; process: string; fileSha256: string; analysisId: number };
-  /** The revision's audit events, oldest first. */
+  /** The revision's audit events, oldest first (sharing events, "report.*", are left out of the brief). */
   history: readonly { at: Date; actor: string | null; action: string; details: Record<string, unknown> }[];
 }
 
@@ -285,7 +285,7 @@ export function buildBrief(input: BriefInput, now: Date): BriefModel {
     figures: keyFigures(input),
     drawing: a ? drawingOf(a.doc) : null,
     flags,
-    history: input.history.map((e) => ({ at: formatUtc(e.at), actor: e.actor ?? "Stokeline", text: describeAuditEvent(e.action, e.details) })),
+    history: input.history.filter((e) => !e.action.startsWith("report.")).map((e) => ({ at: formatUtc(e.at), actor: e.actor ?? "Stokeline", text: describeAuditEvent(e.action, e.details) })),
     clearance: input.clearance
       ? {
           by: input.clearance.byName ?? "a former member",

@@ -1,9 +1,11 @@
 import "server-only";
 /**
  * Renders a brief (lib/reports/brief.ts) to PDF with pdfkit, embedding the
- * app's own IBM Plex fonts (public/fonts, WOFF read by pdfkit's fontkit). A4
+ * app's own IBM Plex fonts (public/fonts, read by pdfkit's fontkit). A4
  * portrait; every page carries the revision's SHA-256 and the generation time
- * (UTC) in its footer. The content comes only from the model, so the PDF and
+ * (UTC) in its footer. Only the sans faces are embedded: fontkit cannot lay
+ * out the mono WOFF's colon between digits, nor subset its WOFF2 file.
+ * The content comes only from the model, so the PDF and
  * the HTML view say the same thing.
  */
 import path from "node:path";
@@ -17,7 +19,6 @@ const FONTS = {
   regular: path.join(FONT_DIR, "ibm-plex-sans-latin-400-normal.woff"),
   medium: path.join(FONT_DIR, "ibm-plex-sans-latin-500-normal.woff"),
   bold: path.join(FONT_DIR, "ibm-plex-sans-latin-600-normal.woff"),
-  mono: path.join(FONT_DIR, "ibm-plex-mono-latin-400-normal.woff"),
 } as const;
 
 const INK = "#1b2430";
@@ -142,7 +143,7 @@ function labelledRows(doc: Doc, rows: [string, string][]): void {
   const valueW = contentWidth(doc) - labelW;
   for (const [label, value] of rows) {
     const safe = pdfSafeText(value);
-    const font = label === "SHA-256" ? "mono" : "regular";
+    const font = label === "SHA-256" ? "regular" : "regular";
     doc.font(font).fontSize(9);
     const h = doc.heightOfString(safe, { width: valueW });
     ensureSpace(doc, h + 3);
@@ -299,7 +300,7 @@ function historyBlock(doc: Doc, brief: BriefModel): void {
     const h = doc.heightOfString(text, { width: w - colAt - colWho });
     ensureSpace(doc, h + 3);
     const y = doc.y;
-    doc.font("mono").fontSize(7.5).fillColor(MUTED).text(e.at, MARGIN.left, y + 0.5, { width: colAt - 4 });
+    doc.font("regular").fontSize(7.5).fillColor(MUTED).text(e.at, MARGIN.left, y + 0.5, { width: colAt - 4 });
     doc.font("medium").fontSize(8.5).fillColor(INK).text(pdfSafeText(e.actor), MARGIN.left + colAt, y, { width: colWho - 4 });
     doc.font("regular").fontSize(8.5).fillColor(INK).text(text, MARGIN.left + colAt + colWho, y, { width: w - colAt - colWho });
     doc.y = Math.max(doc.y, y + h) + 3;
@@ -333,7 +334,7 @@ function footers(doc: Doc, brief: BriefModel): void {
     doc.page.margins.bottom = 0;
     const y = doc.page.height - 44;
     doc.moveTo(MARGIN.left, y - 6).lineTo(doc.page.width - MARGIN.right, y - 6).lineWidth(0.4).strokeColor(RULE).stroke();
-    doc.font("mono").fontSize(7).fillColor(MUTED).text(pdfSafeText(brief.footer), MARGIN.left, y, { width: contentWidth(doc) - 50, lineBreak: true });
+    doc.font("regular").fontSize(7).fillColor(MUTED).text(pdfSafeText(brief.footer), MARGIN.left, y, { width: contentWidth(doc) - 50, lineBreak: true });
     doc.font("regular").fontSize(7.5).fillColor(MUTED).text(`Page ${i - range.start + 1} of ${range.count}`, doc.page.width - MARGIN.right - 50, y, { width: 50, align: "right", lineBreak: false });
     doc.page.margins.bottom = bottom;
   }
