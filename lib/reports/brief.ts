@@ -115,7 +115,7 @@ export function formatUtc(d: Date): string {
 }
 
 const STANDING_LABELS: Record<FlagStanding, string> = {
-  open: "Open — no decision yet",
+  open: "Open — needs a waiver or a fix",
   must_fix: "Must be fixed",
   waived: "Accepted with a waiver",
   fixed: "Fixed — no longer raised",
@@ -247,7 +247,7 @@ export function buildBrief(input: BriefInput, now: Date): BriefModel {
       message: messages.get(s.flagKey) ?? "",
       value: valueText(s.code, s.value),
       standing: s.standing,
-      standingLabel: STANDING_LABELS[s.standing],
+      standingLabel: s.standing === "open" && s.severity !== "block" ? "Open — not blocking, no decision needed" : STANDING_LABELS[s.standing],
       justification: s.disposition?.justification ?? null,
       decidedBy: s.disposition ? (byName.get(`${s.flagKey}@${s.disposition.at.getTime()}`) ?? "a former member") : null,
       decidedAt: s.disposition ? formatUtc(s.disposition.at) : null,

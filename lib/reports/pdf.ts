@@ -203,13 +203,13 @@ function cautionsBox(doc: Doc, brief: BriefModel): void {
 }
 
 function drawingBlock(doc: Doc, drawing: BriefDrawing): void {
-  heading(doc, "The chip, coloured by pressure");
   const w = contentWidth(doc);
   const maxH = 300;
   const k = Math.min(w / drawing.box.width, maxH / drawing.box.height);
   const drawnW = drawing.box.width * k;
   const drawnH = drawing.box.height * k;
-  ensureSpace(doc, drawnH + 70);
+  ensureSpace(doc, drawnH + 110); // heading, drawing and legend stay together
+  heading(doc, "The chip, coloured by pressure");
   const x0 = MARGIN.left + (w - drawnW) / 2;
   const y0 = doc.y + 4;
   const X = (x: number) => x0 + (x - drawing.box.minX) * k;
@@ -334,7 +334,7 @@ function footers(doc: Doc, brief: BriefModel): void {
     doc.page.margins.bottom = 0;
     const y = doc.page.height - 44;
     doc.moveTo(MARGIN.left, y - 6).lineTo(doc.page.width - MARGIN.right, y - 6).lineWidth(0.4).strokeColor(RULE).stroke();
-    doc.font("regular").fontSize(7).fillColor(MUTED).text(pdfSafeText(brief.footer), MARGIN.left, y, { width: contentWidth(doc) - 50, lineBreak: true });
+    doc.font("regular").fontSize(6.5).fillColor(MUTED).text(pdfSafeText(brief.footer), MARGIN.left, y, { width: contentWidth(doc) - 54, lineBreak: true });
     doc.font("regular").fontSize(7.5).fillColor(MUTED).text(`Page ${i - range.start + 1} of ${range.count}`, doc.page.width - MARGIN.right - 50, y, { width: 50, align: "right", lineBreak: false });
     doc.page.margins.bottom = bottom;
   }
