@@ -11,7 +11,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { key: "overview", label: "Overview", path: "", permission: "workspace.view", ready: true },
   { key: "chips", label: "Chips", path: "/chips", permission: "chip.view", ready: true },
   { key: "review", label: "Review queue", path: "/review", permission: "review.queue.view", ready: true },
-  { key: "portfolio", label: "Portfolio", path: "/portfolio", permission: "portfolio.view", ready: false },
+  { key: "portfolio", label: "Portfolio", path: "/portfolio", permission: "portfolio.view", ready: true },
   { key: "inbox", label: "Inbox", path: "/inbox", permission: "workspace.view", ready: true },
   { key: "settings", label: "Settings", path: "/settings", permission: "settings.view", ready: true },
   { key: "admin", label: "Admin", path: "/admin/members", permission: "workspace.manage", ready: true },
