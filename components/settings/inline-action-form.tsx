@@ -1,6 +1,10 @@
 "use client";
-/** A compact form bound to a server action (useActionState), with its message beside the buttons. */
-import { useActionState, type ReactNode } from "react";
+/**
+ * A compact form bound to a server action (useActionState), with its message
+ * beside the buttons. Submitted by hand (not through the form's action prop)
+ * so React does not reset the inputs: what was typed stays after a refusal.
+ */
+import { startTransition, useActionState, type FormEvent, type ReactNode } from "react";
 import type { ActionState } from "@/lib/http/action";
 
 export function InlineActionForm({
@@ -11,26 +15,29 @@ export function InlineActionForm({
   label,
 }: {
   action: (prev: ActionState, form: FormData) => Promise<ActionState>;
-  /** Fields; given the values echoed back after a refused attempt, so React's form reset keeps what was typed. */
-  children: ReactNode | ((values: Record<string, string | string[]> | undefined) => ReactNode);
+  children: ReactNode;
   submitLabel: string;
   extraButtons?: ReactNode;
   label: string;
 }) {
-  const [state, formAction, pending] = useActionState(action, { status: "idle" } as ActionState);
+  const [state, dispatch, pending] = useActionState(action, { status: "idle" } as ActionState);
+  const onSubmit = (e: FormEvent<HTMLFormElement>) => {
+    e.preventDefault();
+    const submitter = (e.nativeEvent as SubmitEvent).submitter as HTMLButtonElement | null;
+    const data = new FormData(e.currentTarget, submitter);
+    startTransition(() => dispatch(data));
+  };
   return (
-    <form action={formAction} className="space-y-2" aria-label={label} noValidate>
-      {typeof children === "function" ? children(state.status === "error" ? state.values : undefined) : children}
+    <form onSubmit={onSubmit} className="space-y-2" aria-label={label} noValidate>
+      {children}
       <div className="flex flex-wrap items-center gap-2">
         <button type="submit" className="btn-primary px-3 py-1.5" disabled={pending}>
           {pending ? "Saving…" : submitLabel}
         </button>
         {extraButtons}
-        {state.status !== "idle" && state.message ? (
-          <p role={state.status === "error" ? "alert" : "status"} className={`text-sm ${state.status === "error" ? "font-medium text-halt-800" : "text-stream-800"}`}>
-            {state.message}
-          </p>
-        ) : null}
+        <p role={state.status === "error" ? "alert" : "status"} className={`text-sm ${state.status === "error" ? "font-medium text-halt-800" : "text-stream-800"}`}>
+          {state.status !== "idle" ? state.message : null}
+        </p>
       </div>
     </form>
   );

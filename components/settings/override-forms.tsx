@@ -1,14 +1,9 @@
 "use client";
-/**
- * The fluidics reviewer's threshold form and the fab liaison's process-limit
- * form. Client components so a refused attempt keeps what was typed (the
- * action echoes the values; React resets the form to them).
- */
+/** The fluidics reviewer's threshold form and the fab liaison's process-limit form. */
 import { InlineActionForm } from "./inline-action-form";
 import type { ActionState } from "@/lib/http/action";
 
 type Action = (prev: ActionState, form: FormData) => Promise<ActionState>;
-const typedOr = (typed: Record<string, string | string[]> | undefined, key: string, fallback: string) => (typed ? String(typed[key] ?? "") : fallback);
 
 export function ThresholdForm({
   action,
@@ -40,23 +35,22 @@ export function ThresholdForm({
         ) : null
       }
     >
-      {(typed) => (
-        <>
+      <>
           <input type="hidden" name="workspace" value={slug} />
           <input type="hidden" name="ruleCode" value={ruleCode} />
-          <div className="flex gap-2">
+          {/* Keyed by the saved value: after a save or reset the inputs show what is stored; after a refusal they keep what was typed. */}
+          <div className="flex gap-2" key={current ? `${current.value}|${current.note}` : "default"}>
             <input
               name="value"
               inputMode="decimal"
               aria-label={`Workspace threshold for ${title} (${unit})`}
               className="field-input w-24"
-              defaultValue={typedOr(typed, "value", current ? String(current.value) : "")}
+              defaultValue={current ? String(current.value) : ""}
               placeholder={String(defaultThreshold)}
             />
-            <input name="note" aria-label={`Why, for ${title}`} className="field-input w-48" defaultValue={typedOr(typed, "note", current?.note ?? "")} placeholder="Why" />
+            <input name="note" aria-label={`Why, for ${title}`} className="field-input w-48" defaultValue={current?.note ?? ""} placeholder="Why" />
           </div>
-        </>
-      )}
+      </>
     </InlineActionForm>
   );
 }
@@ -78,18 +72,17 @@ export function ProcessLimitsForm({
 }) {
   return (
     <InlineActionForm action={action} submitLabel="Save limits" label={`Limits for ${label}`}>
-      {(typed) => (
-        <>
+      <>
           <input type="hidden" name="workspace" value={slug} />
           <input type="hidden" name="processKey" value={processId} />
-          <div className="grid gap-3 md:grid-cols-4">
+          <div className="grid gap-3 md:grid-cols-4" key={fields.map((f) => f.current).join("|")}>
             {fields.map((f) => (
               <div key={f.key}>
                 <label htmlFor={`${processId}-${f.key}`} className="mb-1 block text-xs font-medium text-ink-800">
                   {f.label}
                   {f.unit ? ` (${f.unit})` : ""}
                 </label>
-                <input id={`${processId}-${f.key}`} name={f.key} inputMode="decimal" className="field-input" defaultValue={typedOr(typed, f.key, f.current)} placeholder="default" />
+                <input id={`${processId}-${f.key}`} name={f.key} inputMode="decimal" className="field-input" defaultValue={f.current} placeholder="default" />
               </div>
             ))}
           </div>
@@ -97,10 +90,9 @@ export function ProcessLimitsForm({
             <label htmlFor={`${processId}-note`} className="mb-1 block text-xs font-medium text-ink-800">
               Where your numbers come from
             </label>
-            <input id={`${processId}-note`} name="note" className="field-input" defaultValue={typedOr(typed, "note", note)} placeholder="e.g. burst tests on our bonder, May 2026" />
+            <input id={`${processId}-note`} name="note" className="field-input" defaultValue={note} placeholder="e.g. burst tests on our bonder, May 2026" />
           </div>
-        </>
-      )}
+      </>
     </InlineActionForm>
   );
 }

@@ -24,7 +24,7 @@ export const saveThresholdAction = formAction(
   z.object({ workspace: slugSchema, ruleCode: z.string().min(1).max(64), value: z.string().trim().max(32).default(""), note: z.string().trim().max(500).default(""), reset: z.string().optional() }),
   async (input) => {
     const ctx = await requireMembershipBySlug(input.workspace, "settings.thresholds.edit");
-    const rule = RULES.find((r) => r.code === input.ruleCode && r.defaultThreshold !== null);
+    const rule = RULES.find((r) => r.code === input.ruleCode && r.defaultThreshold !== null && r.defaultThreshold > 0);
     if (!rule) throw new DomainError("unknown_rule", "That rule has no threshold to override here (process limits are set under Process profiles).", 400);
     if (input.reset || input.value === "") {
       await saveThresholdOverride(ctx, rule.code, null, input.note);

@@ -34,6 +34,8 @@ function profileValue(p: ProcessProfile, key: (typeof PROCESS_LIMIT_FIELDS)[numb
 }
 
 const fmt = (n: number, digits = 3) => Number(n.toPrecision(digits)).toString();
+/** A quantity as typed ("1.3 mPa*s", "1620 kg/m^3") in print form ("1.3 mPa·s", "1620 kg/m³"). */
+const pretty = (q: string) => q.replace(/\*/g, "·").replace(/\^3/g, "³").replace(/\^2/g, "²").replace(/\bum\b/g, "µm");
 
 function SectionHeading({ id, title, children }: { id: string; title: string; children: React.ReactNode }) {
   return (
@@ -141,17 +143,17 @@ export default async function SettingsPage({ params }: { params: Promise<{ works
                       <span className="font-medium">{f.name}</span> <span className="font-mono text-xs text-ink-500">{f.key}</span>
                     </td>
                     <td className={td}>
-                      {f.viscosity}
+                      {pretty(f.viscosity)}
                       <br />
                       <span className="text-xs text-ink-600">{f.sources.viscosity}</span>
                     </td>
                     <td className={td}>
-                      {f.density}
+                      {pretty(f.density)}
                       <br />
                       <span className="text-xs text-ink-600">{f.sources.density}</span>
                     </td>
                     <td className={td}>
-                      {f.surfaceTension}
+                      {pretty(f.surfaceTension)}
                       <br />
                       <span className="text-xs text-ink-600">{f.sources.surfaceTension}</span>
                     </td>
@@ -269,10 +271,12 @@ export default async function SettingsPage({ params }: { params: Promise<{ works
                       <br />
                       <span className="font-mono text-xs text-ink-500">{r.code}</span> <span className="text-xs text-ink-600">· {r.severity === "block" ? "must change" : r.severity === "warn" ? "check" : "note"}</span>
                     </td>
-                    <td className={`${td} whitespace-nowrap`}>{r.defaultThreshold === null ? "from the process" : `${r.defaultThreshold} ${r.thresholdUnit}`}</td>
+                    <td className={`${td} whitespace-nowrap`}>{r.defaultThreshold === null ? "from the process" : r.defaultThreshold <= 0 ? "—" : `${r.defaultThreshold} ${r.thresholdUnit}`}</td>
                     <td className={td}>
                       {r.defaultThreshold === null ? (
                         <span className="text-xs text-ink-500">Set under Process profiles</span>
+                      ) : r.defaultThreshold <= 0 ? (
+                        <span className="text-xs text-ink-500">Fixed: a matter of geometry, not a tunable limit</span>
                       ) : mayThresholds ? (
                         <ThresholdForm
                           action={saveThresholdAction}
@@ -302,7 +306,7 @@ export default async function SettingsPage({ params }: { params: Promise<{ works
 
       <section aria-labelledby="tokens">
         <SectionHeading id="tokens" title="Personal API tokens">
-          For your own scripts: a token acts as you, with your roles, in the workspaces you belong to. It is shown once when created.
+          For your own scripts: a token acts as you, with your current roles, until you revoke it. It is shown once when created.
         </SectionHeading>
         <ApiTokens workspaceId={workspace.id} origin={origin} exampleChipId={chips[0]?.id ?? null} />
       </section>
