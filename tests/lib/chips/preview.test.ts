@@ -45,12 +45,20 @@ describe("previewLayers", () => {
     }
   });
 
-  it("samples arcs onto their circle (serpentine-r12 bends stay at their radius from the centre)", () => {
+  it("samples the serpentine's bends so its drawn length matches the closed form (serpentine-r12)", () => {
     const preview = previewLayers(fixture("serpentine-r12.dxf"), "um");
     const flow = preview.layers.find((l) => l.name === "FLOW")!;
-    expect(flow.paths.length).toBeGreaterThan(0);
-    // Every sampled point lies inside the Shapely-checked die area (common practice sanity bound: a 30 mm chip).
-    for (const p of flow.paths) for (let i = 0; i < p.length; i += 2) expect(Math.abs(p[i])).toBeLessThan(0.03);
+    const ports = preview.layers.find((l) => l.name === "PORTS")!;
+    let drawnM = 0;
+    for (const p of flow.paths) for (let i = 2; i < p.length; i += 2) drawnM += Math.hypot(p[i] - p[i - 2], p[i + 1] - p[i - 1]);
+    // Source: expected.json closed_form_length_m = 22 mm + 4·π·0.3 mm, measured outside the port discs
+    // (Shapely difference); the drawn centreline also runs one port radius into each of the two port discs.
+    const closedFormM = expected["serpentine-r12"].closed_form_length_m as number;
+    const radiusM = ports.circles[0][2];
+    expect(ports.circles).toHaveLength(2);
+    // Chords of 48 per turn fall short of each semicircle by π·r·θ²/24 with θ = 2π/48 (≈ 0.7 µm for r = 0.3 mm): 4 bends < 5 µm.
+    expect(drawnM).toBeLessThan(closedFormM + 2 * radiusM);
+    expect(closedFormM + 2 * radiusM - drawnM).toBeLessThan(5e-6);
   });
 
   it("keeps a layer with many vertices under the point budget, and says it simplified it", () => {
