@@ -187,7 +187,7 @@ export function UploadForm({ slug, workspaceId, chipId, chipName, maxBytes }: { 
           {busy ? "Uploading…" : "Upload revision"}
         </button>
       </div>
-      <aside className="panel p-4" aria-labelledby="recent-heading">
+      <aside className="panel self-start p-4" aria-labelledby="recent-heading">
         <h2 id="recent-heading" className="text-sm font-semibold uppercase tracking-wide text-ink-600">
           Revisions so far
         </h2>
