@@ -125,21 +125,21 @@ describe("the lead's portfolio, trends, brief and share links", () => {
     expect(pdfGone.status()).toBe(410);
   });
 
-  it("the lead's API calls to mutating routes answer 403", async () => {
+  it("the lead's calls to mutating routes (chip create, upload, review steps) answer 403", async () => {
     const page = await as("lead@brookmere.test");
     const chips = await page.request.get("/api/v1/workspaces/1/chips");
     const chipId = ((await chips.json()) as { chips: { id: number }[] }).chips[0].id;
     const create = await page.request.post("/api/v1/workspaces/1/chips", { data: { name: "Lead's own chip" } });
     expect(create.status()).toBe(403);
-    const form = {
-      name: "lead's point",
-      fluid: "preset:water",
-      temperature: "25 degC",
-      process: "pdms_soft_lithography",
-      pumpMaxPressure: "2 bar",
-      ports: [{ name: "IN_OIL", drive: "flow", value: "1 uL/min" }],
-    };
-    const op = await page.request.post(`/api/v1/chips/${chipId}/revisions/1/operating-points`, { data: form });
-    expect(op.status()).toBe(403);
+    const upload = await page.request.post(`/api/v1/chips/${chipId}/revisions`, {
+      multipart: { file: { name: "lead.dxf", mimeType: "application/dxf", buffer: Buffer.from("0\nEOF\n") }, note: "lead upload" },
+    });
+    expect(upload.status()).toBe(403);
+    const revisions = await page.request.get(`/api/v1/chips/${chipId}/revisions`);
+    const revisionId = ((await revisions.json()) as { revisions: { id: number }[] }).revisions[0].id;
+    for (const step of ["submit", "pass", "request-changes", "withdraw"]) {
+      const res = await page.request.post(`/api/v1/revisions/${revisionId}/review/${step}`, { data: { expectedVersion: 0, note: "The lead tries a step." } });
+      expect(res.status()).toBe(403);
+    }
   });
 });
