@@ -11,7 +11,7 @@ const FLAG_BORDER: Record<string, string> = { block: "border-halt-600", warn: "b
 export function BriefView({ brief }: { brief: BriefModel }) {
   const r = brief.revision;
   return (
-    <article className="brief mx-auto max-w-4xl bg-white text-ink-900" data-testid="brief">
+    <article className="brief mx-auto max-w-4xl rounded-lg border border-ink-200 bg-white p-8 text-ink-900 print:rounded-none print:border-0 print:p-0" data-testid="brief">
       <style>{`
         @page { size: A4; margin: 16mm 14mm 20mm; }
         @media print {

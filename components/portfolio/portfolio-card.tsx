@@ -34,19 +34,19 @@ export function PortfolioCard({ card, slug }: { card: Card; slug: string }) {
   const a = card.analysis;
   return (
     <li className="panel flex flex-col gap-3 p-5" data-testid="portfolio-card" data-chip={card.name}>
-      <div className="flex flex-wrap items-start justify-between gap-2">
-        <div>
+      <div className="flex items-start justify-between gap-3">
+        <div className="min-w-0 flex-1">
           <h2 className="text-lg font-semibold text-ink-900">
             <Link href={`/w/${slug}/chips/${card.chipId}`}>{card.name}</Link>
           </h2>
           <p className="text-sm text-ink-700">{card.purpose || "No purpose written down."}</p>
         </div>
         {card.cleared ? (
-          <span className="rounded-full border border-stream-600 bg-stream-50 px-2.5 py-0.5 text-xs font-semibold text-stream-800" data-testid="cleared">
+          <span className="shrink-0 rounded-full border border-stream-600 bg-stream-50 px-2.5 py-0.5 text-xs font-semibold text-stream-800" data-testid="cleared">
             Cleared for tape-out
           </span>
         ) : (
-          <span className="rounded-full border border-ink-300 bg-ink-50 px-2.5 py-0.5 text-xs font-medium text-ink-700">Not cleared</span>
+          <span className="shrink-0 rounded-full border border-ink-300 bg-ink-50 px-2.5 py-0.5 text-xs font-medium text-ink-700">Not cleared</span>
         )}
       </div>
       {c ? (
@@ -88,7 +88,7 @@ export function PortfolioCard({ card, slug }: { card: Card; slug: string }) {
           <span className="text-xs text-ink-600">Worst open flag</span>
           {card.worstOpen ? (
             <>
-              <SeverityBadge severity={card.worstOpen.severity} count={card.openCount} />
+              <SeverityBadge severity={card.worstOpen.severity} />
               <span className="text-ink-800">
                 {card.worstOpen.title} — {card.worstOpen.where}
                 {card.worstOpen.standing === "must_fix" ? " (marked must-fix)" : ""}
@@ -97,7 +97,9 @@ export function PortfolioCard({ card, slug }: { card: Card; slug: string }) {
           ) : (
             <SeverityBadge severity="none" />
           )}
-          {card.waivedCount > 0 ? <span className="text-xs text-ink-600">{card.waivedCount} waived</span> : null}
+          <span className="text-xs text-ink-600">
+            {card.openCount} open{card.waivedCount > 0 ? `, ${card.waivedCount} waived` : ""}
+          </span>
         </div>
       ) : null}
       <div className="mt-auto flex flex-wrap gap-2 border-t border-ink-100 pt-3">

@@ -20,13 +20,14 @@ function xScale(points: TrendPoint[]) {
 }
 
 function Axes({ x, y, yLabel, ticks }: { x: ReturnType<typeof xScale>; y: ReturnType<typeof scaleLinear<number, number>>; yLabel: string; ticks: number[] }) {
+  const format = y.tickFormat(ticks.length, ",");
   return (
     <g fontSize="11" fill="#37506c">
       {ticks.map((t) => (
         <g key={t} transform={`translate(0,${y(t)})`}>
           <line x1={M.left} x2={W - M.right} stroke="#e3e9f0" />
           <text x={M.left - 6} dy="0.32em" textAnchor="end">
-            {formatEngineering(t)}
+            {format(t)}
           </text>
         </g>
       ))}
@@ -75,15 +76,21 @@ function LineChart({
       <figcaption className="mb-1 text-sm font-semibold text-ink-900">{title}</figcaption>
       <svg viewBox={`0 0 ${W} ${H}`} className="h-auto w-full" role="img" aria-label={title}>
         <Axes x={x} y={y} yLabel={yLabel} ticks={y.ticks(5)} />
-        {limits.map((l) => {
+        {limits.map((l, k) => {
           const d = path(l.values);
           const lastIndex = l.values.map((v, i) => (v === null ? -1 : i)).filter((i) => i >= 0).pop();
+          // Labels of limits that end within 12 px of an earlier one are stacked below it.
+          const labelY = lastIndex === undefined ? 0 : y(l.values[lastIndex]!);
+          const clash = limits.slice(0, k).some((o) => {
+            const oi = o.values.map((v, i) => (v === null ? -1 : i)).filter((i) => i >= 0).pop();
+            return oi !== undefined && Math.abs(y(o.values[oi]!) - labelY) < 12;
+          });
           return d ? (
             <g key={l.label}>
-              <path d={d} fill="none" stroke={l.colour} strokeWidth="1.5" strokeDasharray="5 4" />
+              <path d={d} fill="none" stroke={l.colour} strokeWidth="1.5" strokeDasharray={k === 0 ? "5 4" : "2 3"} />
               {lastIndex !== undefined ? (
-                <text x={cx(lastIndex) + 8} y={y(l.values[lastIndex]!)} dy="0.32em" fontSize="11" fill={l.colour}>
-                  {l.label}
+                <text x={cx(lastIndex) + 8} y={labelY + (clash ? 13 : 0)} dy="0.32em" fontSize="11" fill={l.colour}>
+                  {l.label} limit
                 </text>
               ) : null}
             </g>

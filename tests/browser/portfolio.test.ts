@@ -4,7 +4,8 @@
 // create a share link, open it signed out, revoke it, and see the revoked link answer 404
 // (HTML) and 410 Gone (PDF) (RFC 9110 §15.5.5, §15.5.11). The lead sees no upload or edit control.
 // Uses the demo seed's chips (db/seed-chips.ts), which every fresh test database has.
-import { readFileSync } from "node:fs";
+import { readFileSync, writeFileSync } from "node:fs";
+import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
 import { MODEL_CAUTIONS } from "@/lib/analysis/cautions";
@@ -91,6 +92,7 @@ describe("the lead's portfolio, trends, brief and share links", () => {
     expect(download.suggestedFilename()).toBe("brief-droplet-generator-dg-1-rev2.pdf");
     const bytes = new Uint8Array(readFileSync((await download.path())!));
     expect(looksLikePdf(bytes)).toBe(true);
+    if (process.env.STOKELINE_SCREENSHOTS) writeFileSync(path.join(process.env.STOKELINE_SCREENSHOTS, "reports-brief-dg1.pdf"), bytes); // for looking, not asserting
     const text = (await pdfText(bytes)).all.replace(/\s+/g, " ");
     expect(text).toContain("Droplet generator DG-1");
     expect(text).toContain(sha);
