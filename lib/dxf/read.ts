@@ -89,6 +89,37 @@ export function decodeLayout(input: string | Uint8Array, maxBytes = MAX_LAYOUT_B
   return text;
 }
 
+const SECTION_START = /(^|\n)[ \t]*0[ \t]*\r?\n[ \t]*SECTION[ \t]*\r?\n[ \t]*2[ \t]*\r?\n[ \t]*([^\r\n]*?)[ \t]*\r?\n/g;
+const SECTION_END = /\n[ \t]*0[ \t]*\r?\n[ \t]*ENDSEC[ \t]*(?=\r?\n|$)/g;
+const SECTIONS_READ = new Set(["HEADER", "BLOCKS", "ENTITIES"]);
+
+/**
+ * The text with only the sections a layout needs (HEADER, BLOCKS, ENTITIES). The others (TABLES,
+ * CLASSES, OBJECTS, …) hold nothing Stokeline reads, and dxf-parser's TABLES reader can loop
+ * forever on a damaged table; leaving them out also makes the parse cheaper.
+ */
+export function keepLayoutSections(text: string): string {
+  const parts: string[] = [];
+  let from = 0;
+  SECTION_START.lastIndex = 0;
+  for (let m = SECTION_START.exec(text); m; m = SECTION_START.exec(text)) {
+    if (SECTIONS_READ.has(m[2].toUpperCase())) continue;
+    const start = m.index + m[1].length;
+    SECTION_END.lastIndex = SECTION_START.lastIndex;
+    const end = SECTION_END.exec(text);
+    if (!end) break; // no ENDSEC: leave the rest to the parser, which reports the truncation
+    parts.push(text.slice(from, start));
+    from = end.index + end[0].length;
+    // Skip the newline after ENDSEC so the next group starts on its own line.
+    if (text[from] === "\r") from++;
+    if (text[from] === "\n") from++;
+    SECTION_START.lastIndex = from === 0 ? 0 : from - 1;
+  }
+  if (from === 0) return text;
+  parts.push(text.slice(from));
+  return parts.join("");
+}
+
 function parseText(text: string): IDxf {
   const parser = new DxfParser();
   // dxf-parser's handler type names its own classes; ours have the same shape.
@@ -99,7 +130,7 @@ function parseText(text: string): IDxf {
   try {
     // dxf-parser reports oddities on the console and carries on; keep them off the CLI's JSON output.
     console.error = console.log = console.warn = () => undefined;
-    const dxf = parser.parseSync(text);
+    const dxf = parser.parseSync(keepLayoutSections(text));
     if (!dxf) throw new Error("no result");
     return dxf;
   } catch (e) {
@@ -265,6 +296,18 @@ function ellipsePoints(e: AnyEntity, tol: number): { pts: Pt[]; closed: boolean 
   return { pts: flattenParametric(f, t0, t1, tol, Math.max(4, Math.ceil((t1 - t0) / (Math.PI / 8)))), closed };
 }
 
+/** A point field of a parsed entity, or a LayoutError when the file left it out (a damaged entity). */
+function requirePoint(v: unknown, type: string, layer: string, handle: string | null): Pt {
+  const p = v as Partial<Pt> | undefined;
+  if (!p || typeof p !== "object" || p.x === undefined || p.y === undefined) {
+    throw new LayoutError(
+      "entity_incomplete",
+      `A ${type} on layer "${layer}"${handle ? ` (handle ${handle})` : ""} is missing its coordinates; the file is damaged there. Fix or delete the entity and export again.`,
+    );
+  }
+  return p as Pt;
+}
+
 function layerOf(entity: AnyEntity, parentLayer: string | null): string {
   const own = typeof entity.layer === "string" && entity.layer !== "" ? entity.layer : "0";
   // Entities on layer 0 inside a block take the layer of the INSERT (DXF block rule).
@@ -306,13 +349,14 @@ function walk(ctx: Ctx, entities: IEntity[], m: Affine, parentLayer: string | nu
     const ocs = Number((e.extrusionDirectionZ as number | undefined) ?? (e.extrusionDirection as Pt & { z?: number } | undefined)?.z ?? 1) < 0 ? compose(m, MIRROR_X) : m;
     switch (type) {
       case "LINE": {
-        const v = e.vertices as Pt[] | undefined;
-        if (!v || v.length < 2) break;
-        pushPath(ctx, layer, type, handle, [{ kind: "line", x0: v[0].x, y0: v[0].y, x1: v[1].x, y1: v[1].y, w0: null, w1: null }], false, m, null);
+        const v = (e.vertices as unknown[] | undefined) ?? [];
+        const a = requirePoint(v[0], type, layer, handle);
+        const b = requirePoint(v[1], type, layer, handle);
+        pushPath(ctx, layer, type, handle, [{ kind: "line", x0: a.x, y0: a.y, x1: b.x, y1: b.y, w0: null, w1: null }], false, m, null);
         break;
       }
       case "ARC": {
-        const c = e.center as Pt;
+        const c = requirePoint(e.center, type, layer, handle);
         const r = Number(e.radius);
         const a0 = Number(e.startAngle ?? 0);
         const sweep = normSweep(Number(e.endAngle ?? TAU) - a0);
@@ -320,13 +364,16 @@ function walk(ctx: Ctx, entities: IEntity[], m: Affine, parentLayer: string | nu
         break;
       }
       case "CIRCLE": {
-        const c = e.center as Pt;
+        const c = requirePoint(e.center, type, layer, handle);
         const p = apply(m, c.x, c.y);
         ctx.out.push({ kind: "circle", layer, type: "CIRCLE", handle, cx: p.x, cy: p.y, r: Number(e.radius) * Math.sqrt(Math.abs(det(m))) });
         break;
       }
       case "LWPOLYLINE": {
-        const vs = (e.vertices as { x: number; y: number; bulge?: number; startWidth?: number; endWidth?: number }[] | undefined) ?? [];
+        const vs = ((e.vertices as ({ x: number; y: number; bulge?: number; startWidth?: number; endWidth?: number } | undefined)[] | undefined) ?? []).map((v) => {
+          requirePoint(v, type, layer, handle);
+          return v!;
+        });
         const constW = typeof e.width === "number" ? e.width : null;
         const verts = vs.map((v) => ({ x: v.x, y: v.y, bulge: v.bulge ?? 0, sw: v.startWidth ?? constW, ew: v.endWidth ?? constW }));
         pushPath(ctx, layer, type, handle, polylinePieces(verts, Boolean(e.shape)), Boolean(e.shape), ocs, null);
@@ -472,7 +519,13 @@ export function readDxf(input: string | Uint8Array, options: ReadDxfOptions): Dx
   // Some writers put model space only in the *Model_Space block and leave out the ENTITIES section.
   const modelBlock = Object.entries(ctx.blocks).find(([name]) => name.toLowerCase() === "*model_space")?.[1];
   const top = dxf.entities && dxf.entities.length > 0 ? dxf.entities : (modelBlock?.entities ?? []);
-  walk(ctx, top, IDENTITY, null, 0, []);
+  try {
+    walk(ctx, top, IDENTITY, null, 0, []);
+  } catch (e) {
+    if (e instanceof LayoutError) throw e;
+    // A shape the parser accepted but no entity reader expects: the file is damaged, not the reader.
+    throw new LayoutError("unreadable_dxf", `The DXF has an entity Stokeline cannot read (${e instanceof Error ? e.message.slice(0, 120) : "malformed data"}). Export it again as an ASCII DXF.`);
+  }
   checkFinite(ctx.out);
   options.onStage?.("entities, blocks, curves");
   return {
