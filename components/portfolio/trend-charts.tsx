@@ -20,7 +20,8 @@ function xScale(points: TrendPoint[]) {
 }
 
 function Axes({ x, y, yLabel, ticks }: { x: ReturnType<typeof xScale>; y: ReturnType<typeof scaleLinear<number, number>>; yLabel: string; ticks: number[] }) {
-  const format = y.tickFormat(ticks.length, ",");
+  // Axis ticks are round numbers: plain digits with thousands separators read best ("2,000", "0.5").
+  const format = (t: number) => Number(t.toPrecision(6)).toLocaleString("en-US", { maximumFractionDigits: 6 });
   return (
     <g fontSize="11" fill="#37506c">
       {ticks.map((t) => (

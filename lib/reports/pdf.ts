@@ -204,11 +204,13 @@ function cautionsBox(doc: Doc, brief: BriefModel): void {
 
 function drawingBlock(doc: Doc, drawing: BriefDrawing): void {
   const w = contentWidth(doc);
-  const maxH = 300;
+  // Up to 300 pt tall; shrunk (to no less than 120 pt) to stay on the current page when that is enough.
+  const room = bottomLimit(doc) - doc.y - 100;
+  const maxH = room >= 120 ? Math.min(300, room) : 300;
   const k = Math.min(w / drawing.box.width, maxH / drawing.box.height);
   const drawnW = drawing.box.width * k;
   const drawnH = drawing.box.height * k;
-  ensureSpace(doc, drawnH + 110); // heading, drawing and legend stay together
+  ensureSpace(doc, drawnH + 100); // heading, drawing and legend stay together
   heading(doc, "The chip, coloured by pressure");
   const x0 = MARGIN.left + (w - drawnW) / 2;
   const y0 = doc.y + 4;
