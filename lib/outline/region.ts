@@ -1,0 +1,229 @@
+/**
+ * A filled region given as closed rings (mask outlines) in drawing units:
+ * overlapping rings are one region, rings inside another ring are holes
+ * (pillars, posts), a ring inside a hole is an island again. Answers "is this
+ * point inside the filled area" and "how far is the nearest wall" through a
+ * uniform grid of the ring edges.
+ *
+ * Own code rather than a polygon-clipping package: the medial axis only needs
+ * an inside test (winding number of orientation-normalised rings, > 0 inside)
+ * and wall distances, not the union polygon itself.
+ */
+
+export type Ring = [number, number][];
+
+const orient = (ax: number, ay: number, bx: number, by: number, px: number, py: number) => (bx - ax) * (py - ay) - (by - ay) * (px - ax);
+
+/** Signed area of a ring (shoelace formula), positive when counter-clockwise. */
+export function signedArea(ring: Ring): number {
+  let a = 0;
+  for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) a += ring[j][0] * ring[i][1] - ring[i][0] * ring[j][1];
+  return a / 2;
+}
+
+/** Even-odd point-in-ring test (ray casting), for ring-in-ring containment only. */
+function inRing(ring: Ring, x: number, y: number): boolean {
+  let inside = false;
+  for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) {
+    const [xi, yi] = ring[i];
+    const [xj, yj] = ring[j];
+    if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
+  }
+  return inside;
+}
+
+function bboxOfRing(r: Ring): [number, number, number, number] {
+  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+  for (const [x, y] of r) {
+    if (x < x0) x0 = x;
+    if (y < y0) y0 = y;
+    if (x > x1) x1 = x;
+    if (y > y1) y1 = y;
+  }
+  return [x0, y0, x1, y1];
+}
+
+/** Drop repeated closing points and zero-length edges. */
+function cleanRing(r: Ring): Ring {
+  const out: Ring = [];
+  for (const p of r) {
+    const last = out.at(-1);
+    if (!last || last[0] !== p[0] || last[1] !== p[1]) out.push([p[0], p[1]]);
+  }
+  while (out.length > 1 && out[0][0] === out.at(-1)![0] && out[0][1] === out.at(-1)![1]) out.pop();
+  return out;
+}
+
+export class Region {
+  /** Rings oriented so the filled side is on the left of every edge. */
+  readonly rings: Ring[];
+  /** Containment depth of each ring: even = outer boundary of filled area, odd = hole. */
+  readonly depth: number[];
+  readonly minX: number;
+  readonly minY: number;
+  readonly maxX: number;
+  readonly maxY: number;
+  /** Edge coordinates, 4 per edge (x0, y0, x1, y1). */
+  private readonly edges: Float64Array;
+  private readonly cell: number;
+  /** Grid origin: one cell left of and below everything, so each row's sweep starts outside. */
+  private readonly ox: number;
+  private readonly oy: number;
+  private readonly nx: number;
+  private readonly ny: number;
+  private readonly cellStart: Int32Array;
+  private readonly cellEdges: Int32Array;
+  /** Winding number at each cell's left-middle reference point. */
+  private readonly cellWinding: Int32Array;
+
+  /**
+   * @param rings closed rings in drawing units (closing point optional), any orientation.
+   * @param cellSize grid cell edge in drawing units (about the sampling step × 4 is a good choice).
+   */
+  constructor(rings: Ring[], cellSize: number) {
+    const clean = rings.map(cleanRing).filter((r) => r.length >= 3 && Math.abs(signedArea(r)) > 0);
+    const boxes = clean.map(bboxOfRing);
+    // A ring is nested in another when its box lies inside the other's and its vertices are inside (three spread ones tested).
+    const depth = clean.map((r, i) => {
+      let d = 0;
+      const b = boxes[i];
+      for (let j = 0; j < clean.length; j++) {
+        if (j === i) continue;
+        const o = boxes[j];
+        if (b[0] < o[0] || b[1] < o[1] || b[2] > o[2] || b[3] > o[3]) continue;
+        const probes = [0, Math.floor(r.length / 3), Math.floor((2 * r.length) / 3)];
+        if (probes.every((k) => inRing(clean[j], r[k][0], r[k][1]))) d++;
+      }
+      return d;
+    });
+    this.rings = clean.map((r, i) => {
+      const ccw = signedArea(r) > 0;
+      const wantCcw = depth[i] % 2 === 0;
+      return ccw === wantCcw ? r : r.slice().reverse();
+    });
+    this.depth = depth;
+    let nE = 0;
+    for (const r of this.rings) nE += r.length;
+    this.edges = new Float64Array(nE * 4);
+    let k = 0;
+    let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+    for (const r of this.rings) {
+      for (let i = 0; i < r.length; i++) {
+        const a = r[i];
+        const b = r[(i + 1) % r.length];
+        this.edges.set([a[0], a[1], b[0], b[1]], 4 * k++);
+        minX = Math.min(minX, a[0]); minY = Math.min(minY, a[1]); maxX = Math.max(maxX, a[0]); maxY = Math.max(maxY, a[1]);
+      }
+    }
+    this.minX = minX; this.minY = minY; this.maxX = maxX; this.maxY = maxY;
+    const extent = Math.max(maxX - minX, maxY - minY, 1e-300);
+    // At most ~4 million cells, whatever the cell size asked for.
+    this.cell = Math.max(cellSize, extent / 2048);
+    this.ox = minX - this.cell;
+    this.oy = minY - this.cell;
+    this.nx = Math.ceil((maxX - this.ox) / this.cell) + 2;
+    this.ny = Math.ceil((maxY - this.oy) / this.cell) + 2;
+    const nCells = this.nx * this.ny;
+    const counts = new Int32Array(nCells + 1);
+    const forCells = (e: number, f: (c: number) => void) => {
+      const ex0 = this.edges[4 * e], ey0 = this.edges[4 * e + 1], ex1 = this.edges[4 * e + 2], ey1 = this.edges[4 * e + 3];
+      // Grown by a hair so an edge on a cell border is listed on both sides of it.
+      const m = this.cell * 1e-6;
+      const i0 = this.cx(Math.min(ex0, ex1) - m), i1 = this.cx(Math.max(ex0, ex1) + m);
+      const j0 = this.cy(Math.min(ey0, ey1) - m), j1 = this.cy(Math.max(ey0, ey1) + m);
+      for (let j = j0; j <= j1; j++) for (let i = i0; i <= i1; i++) f(j * this.nx + i);
+    };
+    for (let e = 0; e < nE; e++) forCells(e, (c) => counts[c + 1]++);
+    for (let c = 0; c < nCells; c++) counts[c + 1] += counts[c];
+    this.cellStart = counts;
+    this.cellEdges = new Int32Array(counts[nCells]);
+    const fill = counts.slice(0, nCells);
+    for (let e = 0; e < nE; e++) forCells(e, (c) => (this.cellEdges[fill[c]++] = e));
+    // Reference points: left edge of each cell at a height off the cell centre by an irrational fraction (avoids vertices).
+    this.cellWinding = new Int32Array(nCells);
+    for (let j = 0; j < this.ny; j++) {
+      let w = 0;
+      const y = this.refY(j);
+      for (let i = 0; i < this.nx; i++) {
+        const c = j * this.nx + i;
+        this.cellWinding[c] = w;
+        w += this.crossings(c, this.ox + i * this.cell, y, this.ox + (i + 1) * this.cell, y);
+      }
+    }
+  }
+
+  private cx(x: number): number {
+    return Math.min(this.nx - 1, Math.max(0, Math.floor((x - this.ox) / this.cell)));
+  }
+  private cy(y: number): number {
+    return Math.min(this.ny - 1, Math.max(0, Math.floor((y - this.oy) / this.cell)));
+  }
+  private refY(j: number): number {
+    return this.oy + (j + 0.5 + 0.0137 * Math.SQRT2) * this.cell;
+  }
+
+  /** Winding change along the segment P→Q from the edges listed in cell c (+1 for each edge crossed from its right to its left). */
+  private crossings(c: number, px: number, py: number, qx: number, qy: number): number {
+    let w = 0;
+    const E = this.edges;
+    for (let k = this.cellStart[c]; k < this.cellStart[c + 1]; k++) {
+      const e = this.cellEdges[k];
+      const ax = E[4 * e], ay = E[4 * e + 1], bx = E[4 * e + 2], by = E[4 * e + 3];
+      const op = orient(ax, ay, bx, by, px, py);
+      const oq = orient(ax, ay, bx, by, qx, qy);
+      // Half-open rule: a point on the edge's line counts as on its left.
+      const pl = op >= 0;
+      const ql = oq >= 0;
+      if (pl === ql) continue;
+      const oa = orient(px, py, qx, qy, ax, ay) >= 0;
+      const ob = orient(px, py, qx, qy, bx, by) >= 0;
+      if (oa === ob) continue;
+      w += ql ? 1 : -1;
+    }
+    return w;
+  }
+
+  /** Winding number of the filled rings around (x, y): > 0 inside the filled area. */
+  winding(x: number, y: number): number {
+    if (x < this.minX || y < this.minY || x > this.maxX || y > this.maxY) return 0;
+    const i = this.cx(x);
+    const j = this.cy(y);
+    const c = j * this.nx + i;
+    const rx = this.ox + i * this.cell;
+    const ry = this.refY(j);
+    return this.cellWinding[c] + this.crossings(c, rx, ry, x, y);
+  }
+
+  /** True when (x, y) is inside the filled area (drawing units). */
+  contains(x: number, y: number): boolean {
+    return this.winding(x, y) > 0;
+  }
+
+  /** Distance from (x, y) to the nearest ring edge, searching no farther than maxR (drawing units); Infinity if none that near. */
+  wallDistance(x: number, y: number, maxR: number): number {
+    const i0 = this.cx(x - maxR), i1 = this.cx(x + maxR), j0 = this.cy(y - maxR), j1 = this.cy(y + maxR);
+    let best = Infinity;
+    const E = this.edges;
+    for (let j = j0; j <= j1; j++) {
+      for (let i = i0; i <= i1; i++) {
+        const c = j * this.nx + i;
+        for (let k = this.cellStart[c]; k < this.cellStart[c + 1]; k++) {
+          const e = this.cellEdges[k];
+          const d = segDist(x, y, E[4 * e], E[4 * e + 1], E[4 * e + 2], E[4 * e + 3]);
+          if (d < best) best = d;
+        }
+      }
+    }
+    return best <= maxR ? best : Infinity;
+  }
+}
+
+/** Distance from a point to a segment (plane geometry). */
+export function segDist(px: number, py: number, ax: number, ay: number, bx: number, by: number): number {
+  const dx = bx - ax;
+  const dy = by - ay;
+  const l2 = dx * dx + dy * dy;
+  let t = l2 === 0 ? 0 : ((px - ax) * dx + (py - ay) * dy) / l2;
+  t = Math.max(0, Math.min(1, t));
+  return Math.hypot(px - (ax + t * dx), py - (ay + t * dy));
+}
