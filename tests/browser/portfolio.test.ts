@@ -88,6 +88,13 @@ describe("the lead's portfolio, trends, brief and share links", () => {
     expect(await page.getByTestId("brief-drawing").locator("polyline").count()).toBeGreaterThan(3);
     expect(await editControlCount(page)).toBe(0);
     await snap(page, "reports-brief-html-1440");
+    // Print CSS: the workspace frame and the page's own buttons drop away, the brief and its footer stay.
+    await page.emulateMedia({ media: "print" });
+    expect(await page.locator("header").first().isVisible()).toBe(false);
+    expect(await page.getByTestId("download-brief").isVisible()).toBe(false);
+    expect(await page.getByTestId("brief-footer").isVisible()).toBe(true);
+    await snap(page, "reports-brief-print-1440");
+    await page.emulateMedia({ media: "screen" });
     const [download] = await Promise.all([page.waitForEvent("download"), page.getByTestId("download-brief").click()]);
     expect(download.suggestedFilename()).toBe("brief-droplet-generator-dg-1-rev2.pdf");
     const bytes = new Uint8Array(readFileSync((await download.path())!));
