@@ -15,6 +15,7 @@ import { parseQuantity } from "../units/quantity";
 import { bboxOf, circleCrossings, endOf, intersect, pieceLength, pointAt, project, reversed, samplePoints, startOf, subPiece } from "./geometry";
 import { CellHash, joinNearPoints, StaticGrid } from "./grid";
 import { describeLayers, planLayers, type LayerPlan, type ResolvedLayer } from "./layers";
+import { readOutlineLayer } from "../outline/read";
 import type { ChannelNetwork, LayoutWarning, NetworkNode, NetworkPort, NetworkSegment, NodeKind, WidthSample } from "./types";
 
 /** Endpoint-merging tolerance when the conditions give none, metres (common practice: below a 1 µm mask grid). */
@@ -431,14 +432,25 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     const lines = linesByLayer.get(l.name) ?? 0;
     l.style = shapes > 0 && lines > 0 ? "mixed" : shapes > 0 ? "outline" : "centreline";
     if (shapes > 0) {
-      warnings.push({ code: "outline_shapes_not_read", message: `Layer "${l.name}" has ${shapes} closed shape(s) (mask outlines or chambers). Stokeline reads channel layers as centrelines; the closed shapes were not read as channels.` });
+      // Mask outlines (issue 9): the filled area's medial axis becomes centreline pieces carrying their local widths.
+      const layer = plan.byName.get(l.name)!;
+      const list = shapesByLayer.get(l.name)!;
+      const src = drawing.entities.indexOf(list[0]);
+      const read = readOutlineLayer(list);
+      for (const p of read.pieces) works.push({ p, len: pieceLength(p), layer, src, curveR: null });
+      const um = (u: number) => fmt(u * mpu * 1e6);
+      const ax = read.axis;
+      warnings.push({
+        code: "outline_read",
+        message: `Layer "${l.name}": ${shapes} closed shape(s) read as mask outlines (${ax.regions} filled region(s), ${ax.holes} hole(s)) → ${ax.paths.length} centreline path(s). Tolerances from the smallest width found, ${um(ax.minWidthUnits)} µm: boundary sampled every ${um(ax.stepUnits)} µm, corner spurs shorter than ${um(ax.pruneLengthUnits)} µm pruned.${ax.notes.length ? ` ${ax.notes.join(" ")}` : ""}`,
+      });
     }
     const other = Object.entries(l.byType).filter(([t]) => !["LINE", "ARC", "LWPOLYLINE", "POLYLINE", "SPLINE", "ELLIPSE", "CIRCLE", "TEXT", "MTEXT"].includes(t));
     if (other.length > 0) {
       warnings.push({ code: "entities_not_read", message: `Layer "${l.name}" has entities Stokeline does not read as channels: ${other.map(([t, n]) => `${t} ${n}`).join(", ")}.` });
     }
     const rl = plan.byName.get(l.name)!;
-    if (rl.depthM === null && lines > 0) {
+    if (rl.depthM === null && (lines > 0 || shapes > 0)) {
       const proposal = plan.mappingProposed
         ? ` The conditions name no layers; Stokeline proposes ${plan.summaries.map((x) => `${x.name} → ${x.role}`).join(", ")}. Save that mapping with a depth (and width) for each channel layer.`
         : "";

@@ -125,14 +125,15 @@ describe("refused files", () => {
 });
 
 describe("channel layer styles", () => {
-  it("closed shapes on a channel layer are set aside as outlines, said in a warning and in the layer's style", () => {
+  it("closed shapes on a channel layer are read as outlines, said in a warning and in the layer's style", () => {
     const closed = ["0", "LWPOLYLINE", "8", "FLOW", "90", "4", "70", "1", "10", "0", "20", "-50", "10", "900", "20", "-50", "10", "900", "20", "50", "10", "0", "20", "50"].join("\n");
     const cond = { units: "um" as const, layers: { FLOW: { role: "channel" as const, width: "100 um", depth: "50 um" }, PORTS: { role: "port" as const } } };
     const text = minimal([closed, line("FLOW", "0", "500", "1000", "500"), circle("PORTS", "0", "500", "100"), circle("PORTS", "1000", "500", "100")].join("\n"), insunits(13));
     const net = extractNetwork(text, cond);
     expect(net.layers.find((l) => l.name === "FLOW")!.style).toBe("mixed");
-    expect(net.warnings.map((w) => w.code)).toContain("outline_shapes_not_read");
-    // Only the centreline is a channel: 1000 µm less the two 100 µm port radii.
+    expect(net.warnings.map((w) => w.code)).toContain("outline_read");
+    // The outline reaches no port, so only the centreline is a channel: 1000 µm less the two 100 µm port radii.
+    expect(net.warnings.map((w) => w.code)).toContain("unconnected_channels");
     expect(net.segments).toHaveLength(1);
     expect(net.segments[0].lengthM).toBeCloseTo(800e-6, 12);
   });
