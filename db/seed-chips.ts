@@ -105,7 +105,7 @@ export function demoInputs(conditions: Conditions, phases: DemoChip["phases"]): 
   };
 }
 
-async function memberContext(demo: DemoContext, email: string, workspace: keyof DemoContext["workspaces"]): Promise<MemberContext> {
+export async function memberContext(demo: DemoContext, email: string, workspace: keyof DemoContext["workspaces"]): Promise<MemberContext> {
   const user = await getUserById(demo.users[email]);
   const ws = demo.workspaces[workspace];
   const roles = await getMembershipRoles(user!.id, ws.id);

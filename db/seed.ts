@@ -17,6 +17,7 @@ import { insertAuditEvent } from "./queries/audit";
 import { hashPassword } from "@/lib/auth/password";
 import type { Role } from "@/lib/auth/roles";
 import { seedChipsStep } from "./seed-chips";
+import { seedReviewStep } from "./seed-review";
 
 /** The one local-only password of every demo account. */
 export const DEMO_PASSWORD = "stokeline-demo";
@@ -84,7 +85,7 @@ export async function seedFoundation(): Promise<DemoContext> {
 }
 
 /** Steps run after the foundation, in order. Later areas append theirs here. */
-export const SEED_STEPS: SeedStep[] = [seedChipsStep];
+export const SEED_STEPS: SeedStep[] = [seedChipsStep, seedReviewStep];
 
 /** True when the demo workspace already exists (seeding is then skipped). */
 export async function isSeeded(): Promise<boolean> {
