@@ -19,6 +19,7 @@ import {
   updateAnalysisSchema,
   withdrawSchema,
 } from "@/lib/review/schemas";
+import { createShareLinkSchema } from "@/lib/reports/share";
 
 type Op = { method: "get" | "post" | "put" | "patch" | "delete"; path: string; summary: string; body?: z.ZodType; multipart?: Record<string, string>; created?: boolean };
 
@@ -69,6 +70,10 @@ const OPERATIONS: Op[] = [
   { method: "post", path: "/api/v1/notifications/read", summary: "Mark notifications read", body: markReadSchema },
   { method: "get", path: "/api/v1/notifications/preferences", summary: "Your e-mail preferences" },
   { method: "put", path: "/api/v1/notifications/preferences", summary: "Change your e-mail preferences", body: emailPreferencesSchema },
+  { method: "get", path: "/api/v1/revisions/{revisionId}/brief.pdf", summary: "The revision's brief as a PDF (generated on demand)" },
+  { method: "get", path: "/api/v1/revisions/{revisionId}/share-links", summary: "Share links of the revision's brief (lead, admin)" },
+  { method: "post", path: "/api/v1/revisions/{revisionId}/share-links", summary: "Create a read-only share link with an expiry (lead, admin)", body: createShareLinkSchema, created: true },
+  { method: "delete", path: "/api/v1/share-links/{id}", summary: "Revoke a share link" },
   { method: "get", path: "/api/v1/workspaces/{workspaceId}/tokens", summary: "Your personal API tokens" },
   { method: "post", path: "/api/v1/workspaces/{workspaceId}/tokens", summary: "Create a personal API token (shown once)", body: apiTokenCreateSchema, created: true },
   { method: "delete", path: "/api/v1/tokens/{tokenId}", summary: "Revoke one of your tokens" },
