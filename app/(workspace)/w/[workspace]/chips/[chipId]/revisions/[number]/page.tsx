@@ -112,6 +112,8 @@ export default async function RevisionPage({
             </span>
             <span className="text-sm">uploaded {formatWhen(revision.uploadedAt)}</span>
             <Link href={`${href}/review`} className="text-sm font-semibold" data-testid="open-review">Review and sign-off</Link>
+            <Link href={`${href}/brief`} className="text-sm font-semibold">Brief</Link>
+            <Link href={`${href}/history`} className="text-sm font-semibold">History</Link>
           </span>
         }
         actions={

@@ -67,6 +67,7 @@ export default async function AnalysisPage({
         lead={
           <span className="flex flex-wrap items-center gap-2 text-sm">
             <ReviewStateBadge state={revision.reviewState} /> Analysed {formatWhen(analysis.createdAt)}
+            <Link href={`${revisionHref(slug, chip.id, number)}/review`} className="font-semibold">Review and sign-off</Link>
           </span>
         }
       />
