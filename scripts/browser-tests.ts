@@ -94,7 +94,7 @@ async function main(): Promise<number> {
 
   if (process.env.STOKELINE_SKIP_BUILD !== "1" && !buildIsFresh()) {
     console.log("Building the app for browser tests (next build)…");
-    const build = spawnSync(nextBin, ["build"], { cwd: root, stdio: "inherit", env: { ...process.env, NODE_ENV: "production" } });
+    const build = spawnSync(nextBin, ["build"], { cwd: root, stdio: "inherit", env: { ...process.env, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1" } });
     if (build.status !== 0) {
       console.error("next build failed; browser tests not run.");
       return build.status ?? 1;
