@@ -162,23 +162,48 @@ function medialAxisAt(rings: Ring[], step: number): MedialAxisResult {
   let minR = Infinity;
   for (const br of branches) {
     const pts: [number, number][] = br.map((v) => [g.x[v], g.y[v]]);
-    const simple = simplify(pts, step / 4);
-    const radii = simple.map(([x, y], i) => {
-      const leaf = (i === 0 && liveDegree(g, br[0]) === 1) || (i === simple.length - 1 && liveDegree(g, br.at(-1)!) === 1);
-      const rv = nearestR(g, br, x, y);
-      let qx = x, qy = y;
-      if (leaf && simple.length >= 2) {
-        // At a dead end the nearest wall is the end wall: measure the width one radius further in.
-        const [ox, oy] = simple[i === 0 ? 1 : simple.length - 2];
-        const l = Math.hypot(ox - x, oy - y);
-        const back = Math.min(rv, l / 2);
-        if (l > 0) { qx = x + ((ox - x) * back) / l; qy = y + ((oy - y) * back) / l; }
+    const keep = simplifyMask(pts, step / 4);
+    const rOf = (k: number) => branchRadius(g, region, br, pts, k, step);
+    const radii = new Map<number, number>();
+    const radius = (k: number) => {
+      let r = radii.get(k);
+      if (r === undefined) radii.set(k, (r = rOf(k)));
+      return r;
+    };
+    // Widths between kept points: bisect along the branch's own vertices (they lie on the axis) while the
+    // width at the middle departs from the straight interpolation by more than 0.5 %.
+    const kept: number[] = [];
+    keep.forEach((on, k) => on && kept.push(k));
+    const stack: [number, number][] = [];
+    for (let i = kept.length - 2; i >= 0; i--) stack.push([kept[i], kept[i + 1]]);
+    while (stack.length) {
+      const [a, b] = stack.pop()!;
+      if (b - a < 2) continue;
+      const m = (a + b) >> 1;
+      const ra = radius(a), rb = radius(b), rm = radius(m);
+      const lin = ra + ((rb - ra) * (m - a)) / (b - a);
+      if (Math.abs(rm - lin) > 0.005 * Math.max(rm, lin)) {
+        keep[m] = 1;
+        stack.push([m, b], [a, m]);
       }
-      const d = region.wallDistance(qx, qy, rv * 1.5 + step);
-      return Number.isFinite(d) ? d : rv;
+    }
+    // Points closer than half a step would make pieces shorter than the network's snap tolerance: skip them.
+    const points: [number, number][] = [];
+    const rs: number[] = [];
+    const last = pts.length - 1;
+    keep.forEach((on, k) => {
+      if (!on) return;
+      const prev = points.at(-1);
+      if (prev && k !== last && Math.hypot(pts[k][0] - prev[0], pts[k][1] - prev[1]) < step / 2) return;
+      if (prev && k === last && points.length > 1 && Math.hypot(pts[k][0] - prev[0], pts[k][1] - prev[1]) < step / 2) {
+        points.pop();
+        rs.pop();
+      }
+      points.push(pts[k]);
+      rs.push(radius(k));
     });
-    for (const r of radii) minR = Math.min(minR, r);
-    paths.push({ points: simple, radii });
+    for (const r of rs) minR = Math.min(minR, r);
+    paths.push({ points, radii: rs });
   }
   extendLeaves(g, branches, paths, region, step);
   const holes = region.depth.filter((d) => d % 2 === 1).length;
@@ -191,18 +216,6 @@ function medialAxisAt(rings: Ring[], step: number): MedialAxisResult {
     holes,
     notes: [],
   };
-}
-
-function nearestR(g: Graph, br: number[], x: number, y: number): number {
-  let best = Infinity, r = 0;
-  for (const v of br) {
-    const d = (g.x[v] - x) ** 2 + (g.y[v] - y) ** 2;
-    if (d < best) {
-      best = d;
-      r = g.r[v];
-    }
-  }
-  return r;
 }
 
 const liveDegree = (g: Graph, v: number) => {
@@ -295,8 +308,7 @@ function contractShort(g: Graph, step: number): void {
         for (let i = 1; i < br.length; i++) g.alive[br[i]] = 0;
         for (const w of g.adj[end]) {
           if (!g.alive[w] || w === v) continue;
-          const k = g.adj[w].indexOf(end);
-          g.adj[w][k] = v;
+          g.adj[w] = g.adj[w].map((x) => (x === end ? v : x)).filter((x, i, a) => a.indexOf(x) === i);
           g.adj[v].push(w);
         }
         g.adj[v] = g.adj[v].filter((w, i, a) => g.alive[w] && a.indexOf(w) === i);
@@ -335,12 +347,12 @@ function listBranches(g: Graph): number[][] {
   return out;
 }
 
-/** Douglas–Peucker simplification (iterative, keeps the ends); own code: a dozen lines. */
-export function simplify(pts: [number, number][], tol: number): [number, number][] {
-  if (pts.length <= 2) return pts.slice();
+/** Douglas–Peucker simplification (iterative, keeps the ends): which points to keep. Own code: a dozen lines. */
+export function simplifyMask(pts: [number, number][], tol: number): Uint8Array {
   const keep = new Uint8Array(pts.length);
+  if (pts.length === 0) return keep;
   keep[0] = keep[pts.length - 1] = 1;
-  const stack: [number, number][] = [[0, pts.length - 1]];
+  const stack: [number, number][] = pts.length > 2 ? [[0, pts.length - 1]] : [];
   while (stack.length) {
     const [i, j] = stack.pop()!;
     const [ax, ay] = pts[i], [bx, by] = pts[j];
@@ -356,7 +368,37 @@ export function simplify(pts: [number, number][], tol: number): [number, number]
       stack.push([i, best], [best, j]);
     }
   }
-  return pts.filter((_, k) => keep[k]);
+  return keep;
+}
+
+/** Half-width at vertex k of a branch: the exact wall distance; at a dead end, measured one radius further in (the end wall is nearer there). */
+function branchRadius(g: Graph, region: Region, br: number[], pts: [number, number][], k: number, step: number): number {
+  const v = br[k];
+  const rv = g.r[v];
+  const [x, y] = pts[k];
+  if ((k === 0 || k === br.length - 1) && liveDegree(g, v) === 1 && br.length >= 2) {
+    // Walk inwards along the branch by one radius.
+    const dir = k === 0 ? 1 : -1;
+    let walked = 0;
+    let j = k;
+    while (j + dir >= 0 && j + dir < br.length && walked < rv) {
+      walked += Math.hypot(pts[j + dir][0] - pts[j][0], pts[j + dir][1] - pts[j][1]);
+      j += dir;
+    }
+    const d1 = region.wallDistance(pts[j][0], pts[j][1], rv * 1.5 + step);
+    // And as far again, to carry a taper's slope out to the end (linear extrapolation).
+    const s1 = walked;
+    while (j + dir >= 0 && j + dir < br.length && walked < 2 * s1) {
+      walked += Math.hypot(pts[j + dir][0] - pts[j][0], pts[j + dir][1] - pts[j][1]);
+      j += dir;
+    }
+    const d2 = region.wallDistance(pts[j][0], pts[j][1], rv * 1.5 + step);
+    if (!Number.isFinite(d1)) return rv;
+    if (!Number.isFinite(d2) || walked <= s1 || Math.abs(d2 - d1) > 0.2 * d1) return d1;
+    return Math.max(0, d1 + ((d1 - d2) * s1) / (walked - s1));
+  }
+  const d = region.wallDistance(x, y, rv * 1.5 + step);
+  return Number.isFinite(d) ? d : rv;
 }
 
 /** Dead ends: the axis stops one radius short of a flat or round end wall; extend it there along its last direction. */
@@ -389,12 +431,15 @@ function extendLeaves(g: Graph, branches: number[][], paths: CentrelinePath[], r
       ux *= reach;
       uy *= reach;
       const pt: [number, number] = [x + ux, y + uy];
+      // The width carried on along the last piece's slope (a taper keeps tapering to the end wall).
+      const slope = (r - p.radii[kPrev]) / l;
+      const rEnd = Math.abs(slope) < 0.5 ? Math.max(r * 0.5, r + slope * reach) : r;
       if (atEnd) {
         p.points.push(pt);
-        p.radii.push(r);
+        p.radii.push(rEnd);
       } else {
         p.points.unshift(pt);
-        p.radii.unshift(r);
+        p.radii.unshift(rEnd);
       }
     }
   });
