@@ -6,7 +6,7 @@
  * converts to SI).
  */
 import { Delaunay } from "d3-delaunay";
-import { Region, signedArea, type Ring } from "./region";
+import { Region, signedArea, WallGrid, type Ring } from "./region";
 
 /** Samples per smallest width (common practice for Voronoi medial axes: a few samples across the narrowest gap). */
 export const SAMPLES_PER_WIDTH = 6;
@@ -88,6 +88,8 @@ function medialAxisAt(rings: Ring[], step: number): MedialAxisResult {
   const ys: number[] = [];
   const ringOf: number[] = [];
   const posOf: number[] = [];
+  // Walls for widths: whole edges where no sample fell inside the filled area, else the runs between kept samples.
+  const walls: number[] = [];
   region.rings.forEach((ring, ri) => {
     let s = 0;
     for (let i = 0; i < ring.length; i++) {
@@ -97,18 +99,27 @@ function medialAxisAt(rings: Ring[], step: number): MedialAxisResult {
       const n = Math.max(1, Math.ceil(len / step));
       // Filled side is on the left; the probe goes a hair to the right.
       const nx = (by - ay) / len, ny = -(bx - ax) / len;
-      for (let k = 0; k < n; k++) {
+      let dropped = 0;
+      let prevKept = false;
+      for (let k = 0; k <= n; k++) {
         const x = ax + ((bx - ax) * k) / n;
         const y = ay + ((by - ay) * k) / n;
-        if (region.contains(x + nx * eps, y + ny * eps)) continue;
+        // k = n is the next edge's first sample: probed here only to close this edge's last wall run.
+        const kept = !region.contains(x + nx * eps, y + ny * eps);
+        if (!kept && k < n) dropped++;
+        if (kept && prevKept && dropped > 0) walls.push(ax + ((bx - ax) * (k - 1)) / n, ay + ((by - ay) * (k - 1)) / n, x, y);
+        prevKept = kept;
+        if (!kept || k === n) continue;
         xs.push(x);
         ys.push(y);
         ringOf.push(ri);
         posOf.push(s + (len * k) / n);
       }
+      if (dropped === 0) walls.push(ax, ay, bx, by);
       s += len;
     }
   });
+  const wallGrid = new WallGrid(Float64Array.from(walls), step * 4);
   const perimOf = region.rings.map((r) => r.reduce((acc, a, i) => acc + Math.hypot(r[(i + 1) % r.length][0] - a[0], r[(i + 1) % r.length][1] - a[1]), 0));
   const n = xs.length;
   const coords = new Float64Array(2 * n);
@@ -163,7 +174,7 @@ function medialAxisAt(rings: Ring[], step: number): MedialAxisResult {
   for (const br of branches) {
     const pts: [number, number][] = br.map((v) => [g.x[v], g.y[v]]);
     const keep = simplifyMask(pts, step / 4);
-    const rOf = (k: number) => branchRadius(g, region, br, pts, k, step);
+    const rOf = (k: number) => branchRadius(g, wallGrid, br, pts, k, step);
     const radii = new Map<number, number>();
     const radius = (k: number) => {
       let r = radii.get(k);
@@ -372,7 +383,7 @@ export function simplifyMask(pts: [number, number][], tol: number): Uint8Array {
 }
 
 /** Half-width at vertex k of a branch: the exact wall distance; at a dead end, measured one radius further in (the end wall is nearer there). */
-function branchRadius(g: Graph, region: Region, br: number[], pts: [number, number][], k: number, step: number): number {
+function branchRadius(g: Graph, walls: WallGrid, br: number[], pts: [number, number][], k: number, step: number): number {
   const v = br[k];
   const rv = g.r[v];
   const [x, y] = pts[k];
@@ -385,19 +396,19 @@ function branchRadius(g: Graph, region: Region, br: number[], pts: [number, numb
       walked += Math.hypot(pts[j + dir][0] - pts[j][0], pts[j + dir][1] - pts[j][1]);
       j += dir;
     }
-    const d1 = region.wallDistance(pts[j][0], pts[j][1], rv * 1.5 + step);
+    const d1 = walls.distance(pts[j][0], pts[j][1], rv * 1.5 + step);
     // And as far again, to carry a taper's slope out to the end (linear extrapolation).
     const s1 = walked;
     while (j + dir >= 0 && j + dir < br.length && walked < 2 * s1) {
       walked += Math.hypot(pts[j + dir][0] - pts[j][0], pts[j + dir][1] - pts[j][1]);
       j += dir;
     }
-    const d2 = region.wallDistance(pts[j][0], pts[j][1], rv * 1.5 + step);
+    const d2 = walls.distance(pts[j][0], pts[j][1], rv * 1.5 + step);
     if (!Number.isFinite(d1)) return rv;
     if (!Number.isFinite(d2) || walked <= s1 || Math.abs(d2 - d1) > 0.2 * d1) return d1;
     return Math.max(0, d1 + ((d1 - d2) * s1) / (walked - s1));
   }
-  const d = region.wallDistance(x, y, rv * 1.5 + step);
+  const d = walls.distance(x, y, rv * 1.5 + step);
   return Number.isFinite(d) ? d : rv;
 }
 

@@ -198,24 +198,6 @@ export class Region {
   contains(x: number, y: number): boolean {
     return this.winding(x, y) > 0;
   }
-
-  /** Distance from (x, y) to the nearest ring edge, searching no farther than maxR (drawing units); Infinity if none that near. */
-  wallDistance(x: number, y: number, maxR: number): number {
-    const i0 = this.cx(x - maxR), i1 = this.cx(x + maxR), j0 = this.cy(y - maxR), j1 = this.cy(y + maxR);
-    let best = Infinity;
-    const E = this.edges;
-    for (let j = j0; j <= j1; j++) {
-      for (let i = i0; i <= i1; i++) {
-        const c = j * this.nx + i;
-        for (let k = this.cellStart[c]; k < this.cellStart[c + 1]; k++) {
-          const e = this.cellEdges[k];
-          const d = segDist(x, y, E[4 * e], E[4 * e + 1], E[4 * e + 2], E[4 * e + 3]);
-          if (d < best) best = d;
-        }
-      }
-    }
-    return best <= maxR ? best : Infinity;
-  }
 }
 
 /** Distance from a point to a segment (plane geometry). */
@@ -226,4 +208,72 @@ export function segDist(px: number, py: number, ax: number, ay: number, bx: numb
   let t = l2 === 0 ? 0 : ((px - ax) * dx + (py - ay) * dy) / l2;
   t = Math.max(0, Math.min(1, t));
   return Math.hypot(px - (ax + t * dx), py - (ay + t * dy));
+}
+
+/** Wall segments (4 numbers each, drawing units) in a uniform grid, for nearest-wall distances. */
+export class WallGrid {
+  private readonly ox: number;
+  private readonly oy: number;
+  private readonly cell: number;
+  private readonly nx: number;
+  private readonly ny: number;
+  private readonly start: Int32Array;
+  private readonly list: Int32Array;
+
+  /**
+   * @param segs wall segments, x0 y0 x1 y1 each, drawing units.
+   * @param cellSize grid cell edge, drawing units.
+   */
+  constructor(private readonly segs: Float64Array, cellSize: number) {
+    let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+    for (let i = 0; i < segs.length; i += 2) {
+      minX = Math.min(minX, segs[i]); maxX = Math.max(maxX, segs[i]);
+      minY = Math.min(minY, segs[i + 1]); maxY = Math.max(maxY, segs[i + 1]);
+    }
+    if (!Number.isFinite(minX)) minX = minY = maxX = maxY = 0;
+    const extent = Math.max(maxX - minX, maxY - minY, 1e-300);
+    this.cell = Math.max(cellSize, extent / 2048);
+    this.ox = minX - this.cell;
+    this.oy = minY - this.cell;
+    this.nx = Math.ceil((maxX - this.ox) / this.cell) + 2;
+    this.ny = Math.ceil((maxY - this.oy) / this.cell) + 2;
+    const n = segs.length / 4;
+    const counts = new Int32Array(this.nx * this.ny + 1);
+    const each = (e: number, f: (c: number) => void) => {
+      const i0 = this.ix(Math.min(segs[4 * e], segs[4 * e + 2])), i1 = this.ix(Math.max(segs[4 * e], segs[4 * e + 2]));
+      const j0 = this.iy(Math.min(segs[4 * e + 1], segs[4 * e + 3])), j1 = this.iy(Math.max(segs[4 * e + 1], segs[4 * e + 3]));
+      for (let j = j0; j <= j1; j++) for (let i = i0; i <= i1; i++) f(j * this.nx + i);
+    };
+    for (let e = 0; e < n; e++) each(e, (c) => counts[c + 1]++);
+    for (let c = 0; c + 1 < counts.length; c++) counts[c + 1] += counts[c];
+    this.start = counts;
+    this.list = new Int32Array(counts[counts.length - 1]);
+    const fill = counts.slice(0, counts.length - 1);
+    for (let e = 0; e < n; e++) each(e, (c) => (this.list[fill[c]++] = e));
+  }
+
+  private ix(x: number): number {
+    return Math.min(this.nx - 1, Math.max(0, Math.floor((x - this.ox) / this.cell)));
+  }
+  private iy(y: number): number {
+    return Math.min(this.ny - 1, Math.max(0, Math.floor((y - this.oy) / this.cell)));
+  }
+
+  /** Distance from (x, y) to the nearest wall segment within maxR (drawing units); Infinity if none that near. */
+  distance(x: number, y: number, maxR: number): number {
+    const i0 = this.ix(x - maxR), i1 = this.ix(x + maxR), j0 = this.iy(y - maxR), j1 = this.iy(y + maxR);
+    const S = this.segs;
+    let best = Infinity;
+    for (let j = j0; j <= j1; j++) {
+      for (let i = i0; i <= i1; i++) {
+        const c = j * this.nx + i;
+        for (let k = this.start[c]; k < this.start[c + 1]; k++) {
+          const e = this.list[k];
+          const d = segDist(x, y, S[4 * e], S[4 * e + 1], S[4 * e + 2], S[4 * e + 3]);
+          if (d < best) best = d;
+        }
+      }
+    }
+    return best <= maxR ? best : Infinity;
+  }
 }
