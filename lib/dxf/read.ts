@@ -10,6 +10,7 @@ import type { IDxf, IEntity, IBlock } from "dxf-parser";
 import { LayoutError } from "../errors";
 import { flattenNurbs, flattenParametric, minRadiusOfPolyline, type Pt } from "./curves";
 import { COUNTED_ONLY_TYPES, countingHandler, PolylineWithWidths, SplineWithWeights, type RawPolyline, type RawSpline } from "./handlers";
+import { HatchWithBoundaries, type RawHatch } from "./hatch";
 import type { ArcPiece, DrawingEntity, DxfDrawing, Piece } from "./types";
 import { INSUNITS_OTHER_NAMES, INSUNITS_TO_UNIT, METRES_PER_UNIT, type DrawingUnit } from "./units";
 
@@ -126,6 +127,8 @@ function parseText(text: string): IDxf {
   parser.registerEntityHandler(PolylineWithWidths as never);
   parser.registerEntityHandler(SplineWithWeights as never);
   for (const t of COUNTED_ONLY_TYPES) parser.registerEntityHandler(countingHandler(t) as never);
+  // After the counting handlers: this one replaces their HATCH entry and reads the boundary paths.
+  parser.registerEntityHandler(HatchWithBoundaries as never);
   const saved = { error: console.error, log: console.log, warn: console.warn };
   try {
     // dxf-parser reports oddities on the console and carries on; keep them off the CLI's JSON output.
@@ -430,6 +433,31 @@ function walk(ctx: Ctx, entities: IEntity[], m: Affine, parentLayer: string | nu
         if (!at) break;
         const p = apply(m, at.x, at.y);
         ctx.out.push({ kind: "text", layer, type: "MTEXT", handle, x: p.x, y: p.y, text: stripMtext(String(e.text ?? "")) });
+        break;
+      }
+      case "HATCH": {
+        // Boundary paths as closed paths (issue 9: filled masks); elliptic and spline edges are not read.
+        const h = raw as unknown as RawHatch;
+        for (const path of h.paths ?? []) {
+          let pieces: Piece[] = [];
+          if (path.kind === "polyline") pieces = polylinePieces(path.vertices.map((v) => ({ x: v.x, y: v.y, bulge: v.bulge, sw: null, ew: null })), true);
+          else {
+            if (path.edges.some((ed) => ed.kind === "unsupported")) {
+              note(ctx, "hatch_edge_skipped", "A hatch boundary with elliptic or spline edges was skipped; redraw it with lines and arcs or as a closed polyline.");
+              continue;
+            }
+            for (const ed of path.edges) {
+              if (ed.kind === "line") pieces.push({ kind: "line", x0: ed.x0, y0: ed.y0, x1: ed.x1, y1: ed.y1, w0: null, w1: null });
+              else if (ed.kind === "arc") {
+                // DXF reference: a clockwise edge arc stores its angles mirrored (negated).
+                const a0 = ((ed.ccw ? ed.startDeg : -ed.startDeg) * Math.PI) / 180;
+                const sweep = normSweep(((ed.endDeg - ed.startDeg) * Math.PI) / 180) * (ed.ccw ? 1 : -1);
+                pieces.push({ kind: "arc", cx: ed.cx, cy: ed.cy, r: ed.r, a0, sweep, w0: null, w1: null });
+              }
+            }
+          }
+          if (pieces.length > 0) pushPath(ctx, layer, type, handle, pieces, true, h.extrusionZ < 0 ? compose(m, MIRROR_X) : m, null);
+        }
         break;
       }
       default:

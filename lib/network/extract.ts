@@ -445,7 +445,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
         message: `Layer "${l.name}": ${shapes} closed shape(s) read as mask outlines (${ax.regions} filled region(s), ${ax.holes} hole(s)) → ${ax.paths.length} centreline path(s). Tolerances from the smallest width found, ${um(ax.minWidthUnits)} µm: boundary sampled every ${um(ax.stepUnits)} µm, corner spurs shorter than ${um(ax.pruneLengthUnits)} µm pruned.${ax.notes.length ? ` ${ax.notes.join(" ")}` : ""}`,
       });
     }
-    const other = Object.entries(l.byType).filter(([t]) => !["LINE", "ARC", "LWPOLYLINE", "POLYLINE", "SPLINE", "ELLIPSE", "CIRCLE", "TEXT", "MTEXT"].includes(t));
+    const other = Object.entries(l.byType).filter(([t]) => !["LINE", "ARC", "LWPOLYLINE", "POLYLINE", "SPLINE", "ELLIPSE", "CIRCLE", "HATCH", "TEXT", "MTEXT"].includes(t));
     if (other.length > 0) {
       warnings.push({ code: "entities_not_read", message: `Layer "${l.name}" has entities Stokeline does not read as channels: ${other.map(([t, n]) => `${t} ${n}`).join(", ")}.` });
     }

@@ -1,0 +1,125 @@
+/**
+ * HATCH entity handler for dxf-parser, which has none: reads the boundary
+ * paths (polyline paths with bulges; edge paths of lines and circular arcs)
+ * so a filled mask drawn as hatches can be read as outlines (issue 9).
+ * Group codes from the DXF reference, HATCH entity and "Boundary path data".
+ */
+
+interface Group {
+  code: number;
+  value: number | string | boolean;
+}
+
+interface Scanner {
+  next(): Group;
+  isEOF(): boolean;
+  lastReadGroup: Group;
+}
+
+export interface HatchVertex {
+  x: number;
+  y: number;
+  bulge: number;
+}
+
+export type HatchEdge =
+  | { kind: "line"; x0: number; y0: number; x1: number; y1: number }
+  | { kind: "arc"; cx: number; cy: number; r: number; startDeg: number; endDeg: number; ccw: boolean }
+  | { kind: "unsupported"; type: number };
+
+export type HatchPath = { kind: "polyline"; vertices: HatchVertex[] } | { kind: "edges"; edges: HatchEdge[] };
+
+export interface RawHatch {
+  type: "HATCH";
+  layer?: string;
+  handle?: string;
+  inPaperSpace?: boolean;
+  extrusionZ: number;
+  paths: HatchPath[];
+}
+
+const num = (v: Group["value"]): number => (typeof v === "number" ? v : Number(v));
+
+/** Parse the boundary paths from the HATCH's groups (code 91 starts them; each path starts with its 92 flags). */
+export function parseHatchGroups(groups: Group[]): Omit<RawHatch, "type"> {
+  const out: Omit<RawHatch, "type"> = { extrusionZ: 1, paths: [] };
+  let i = 0;
+  const at = (code: number) => i < groups.length && groups[i].code === code;
+  const take = () => groups[i++];
+  while (i < groups.length) {
+    const g = groups[i];
+    if (g.code === 8) out.layer = String(g.value);
+    else if (g.code === 5) out.handle = String(g.value);
+    else if (g.code === 67) out.inPaperSpace = g.value !== 0;
+    else if (g.code === 230) out.extrusionZ = num(g.value);
+    else if (g.code === 91) {
+      i++;
+      const nPaths = num(g.value);
+      for (let p = 0; p < nPaths && i < groups.length; p++) {
+        while (i < groups.length && !at(92)) i++;
+        if (i >= groups.length) break;
+        const flags = num(take().value);
+        if (flags & 2) {
+          // Polyline path: 72 has-bulge, 73 closed, 93 vertex count, then 10/20 (42) per vertex.
+          let hasBulge = false;
+          let n = 0;
+          while (i < groups.length && !at(10)) {
+            const h = take();
+            if (h.code === 72) hasBulge = num(h.value) !== 0;
+            else if (h.code === 93) n = num(h.value);
+          }
+          const vertices: HatchVertex[] = [];
+          for (let k = 0; k < n && at(10); k++) {
+            const x = num(take().value);
+            const y = at(20) ? num(take().value) : NaN;
+            const bulge = hasBulge && at(42) ? num(take().value) : 0;
+            vertices.push({ x, y, bulge });
+          }
+          out.paths.push({ kind: "polyline", vertices });
+        } else {
+          // Edge path: 93 edge count, then per edge 72 type and its data.
+          while (i < groups.length && !at(93)) i++;
+          const nEdges = i < groups.length ? num(take().value) : 0;
+          const edges: HatchEdge[] = [];
+          for (let k = 0; k < nEdges; k++) {
+            while (i < groups.length && !at(72)) i++;
+            if (i >= groups.length) break;
+            const type = num(take().value);
+            const vals = new Map<number, number>();
+            // The edge's data runs up to the next edge's 72, or the path's 97 (source objects) / next 92.
+            while (i < groups.length && !at(72) && !at(97) && !at(92)) {
+              const h = take();
+              if (!vals.has(h.code)) vals.set(h.code, num(h.value));
+            }
+            if (type === 1) edges.push({ kind: "line", x0: vals.get(10)!, y0: vals.get(20)!, x1: vals.get(11)!, y1: vals.get(21)! });
+            else if (type === 2) edges.push({ kind: "arc", cx: vals.get(10)!, cy: vals.get(20)!, r: vals.get(40)!, startDeg: vals.get(50)!, endDeg: vals.get(51)!, ccw: (vals.get(73) ?? 1) !== 0 });
+            else edges.push({ kind: "unsupported", type });
+          }
+          out.paths.push({ kind: "edges", edges });
+        }
+        // Source boundary objects (97 count, 330 handles) end the path.
+        if (at(97)) {
+          const nSrc = num(take().value);
+          for (let k = 0; k < nSrc && at(330); k++) i++;
+        }
+      }
+      continue;
+    }
+    i++;
+  }
+  return out;
+}
+
+/** dxf-parser handler class for HATCH (registered with parser.registerEntityHandler). */
+export class HatchWithBoundaries {
+  public ForEntityName = "HATCH" as const;
+  public parseEntity(scanner: Scanner): RawHatch {
+    const groups: Group[] = [];
+    let g = scanner.next();
+    while (!scanner.isEOF() && g.code !== 0) {
+      groups.push(g);
+      g = scanner.next();
+    }
+    return { type: "HATCH", ...parseHatchGroups(groups) };
+  }
+}
