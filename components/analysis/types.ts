@@ -7,7 +7,7 @@
 import type { AnalyzeJson } from "@/lib/analysis/serialize";
 import type { UnitPreferences } from "@/lib/analysis/quantities";
 
-/** Per-user display units (lib/analysis/quantities.ts: unitPreferencesSchema); values stay SI everywhere else. */
+/** Per-user display units (validated by lib/analysis/unit-preferences.ts); values stay SI everywhere else. */
 export type { UnitPreferences };
 
 /** Labels of what is being shown, already resolved by the page. */

@@ -5,8 +5,6 @@
  * formatting. Shared by the segment table, the drawing's legend and the CSV
  * export, so all three say the same thing. Pure.
  */
-import { z } from "zod";
-import { convertFromSI, type Dimension } from "../units/quantity";
 import { spansDecades } from "./colour-scales";
 import type { AnalyzeJson, AnalyzeSegmentJson } from "./serialize";
 
@@ -20,7 +18,26 @@ export interface DisplayUnit {
   label: string;
 }
 
-/** Display units per family, default first. Conversions are mathjs's (lib/units/quantity.ts); exact factors in REFERENCES §8. */
+/**
+ * SI → display factors, written from the units' definitions (SI Brochure; psi per NIST SP 811,
+ * 1 psi = 6894.757293168 Pa). A table rather than mathjs calls so the analysis view's browser
+ * bundle carries no unit library; tests/lib/analysis/quantities.test.ts checks every entry
+ * against mathjs (lib/units/quantity.ts), so the two cannot drift.
+ */
+const PER_SI: Record<UnitFamily, Record<string, number>> = {
+  length: { um: 1e6, mm: 1e3, m: 1 },
+  pressure: { mbar: 1e-2, kPa: 1e-3, psi: 1 / 6894.757293168, Pa: 1 },
+  // 1 µL/min = 1e-9 m³ / 60 s.
+  flow: { "uL/min": 6e10, "uL/h": 3.6e12, "nL/s": 1e12, "nL/min": 6e13 },
+  velocity: { "mm/s": 1e3, "um/s": 1e6, "m/s": 1 },
+  stress: { Pa: 1, "dyn/cm^2": 10, mPa: 1e3 },
+  time: { s: 1, ms: 1e3, min: 1 / 60 },
+  // Pa·s/m³ × (m³/s per µL/min) = Pa per µL/min; × 1e-2 → mbar per µL/min.
+  resistance: { "Pa s/m^3": 1, "mbar/(uL/min)": (1e-9 / 60) * 1e-2 },
+  none: { "": 1 },
+};
+
+/** Display units per family, default first. Factors in PER_SI; exact definitions in REFERENCES §8. */
 export const DISPLAY_UNITS: Record<UnitFamily, readonly DisplayUnit[]> = {
   length: [
     { id: "um", label: "µm" },
@@ -73,19 +90,8 @@ export const SI_UNIT_LABEL: Record<UnitFamily, string> = {
   none: "",
 };
 
-const unitIds = (family: UnitFamily) => DISPLAY_UNITS[family].map((u) => u.id) as [string, ...string[]];
-
-/** A member's unit choices, stored per user. Every family is optional; missing ones take the default. */
-export const unitPreferencesSchema = z.object({
-  length: z.enum(unitIds("length")).optional(),
-  pressure: z.enum(unitIds("pressure")).optional(),
-  flow: z.enum(unitIds("flow")).optional(),
-  velocity: z.enum(unitIds("velocity")).optional(),
-  stress: z.enum(unitIds("stress")).optional(),
-  time: z.enum(unitIds("time")).optional(),
-  resistance: z.enum(unitIds("resistance")).optional(),
-});
-export type UnitPreferences = z.infer<typeof unitPreferencesSchema>;
+/** A member's unit choices, stored per user (validated by lib/analysis/unit-preferences.ts). Missing families take the default. */
+export type UnitPreferences = Partial<Record<Exclude<UnitFamily, "none">, string>>;
 
 export const DEFAULT_UNIT_PREFERENCES: Required<UnitPreferences> = {
   length: "um",
@@ -97,33 +103,14 @@ export const DEFAULT_UNIT_PREFERENCES: Required<UnitPreferences> = {
   resistance: "mbar/(uL/min)",
 };
 
-const FAMILY_DIMENSION: Partial<Record<UnitFamily, Dimension>> = {
-  length: "length",
-  pressure: "pressure",
-  flow: "flow",
-  velocity: "velocity",
-  stress: "pressure",
-  time: "time",
-};
-
-const factorCache = new Map<string, number>();
-
 /**
- * SI → display factor. Every unit here is proportional to SI (none affine, unlike °C),
- * so mathjs is asked once per unit and a 10,000-row table multiplies instead of parsing.
- * @throws DomainError (ConditionsError) from lib/units when the unit is not one mathjs knows.
+ * SI → display factor. Every unit here is proportional to SI (none affine, unlike °C), so a
+ * 10,000-row table multiplies instead of parsing.
+ * @throws Error for a unit the catalogue does not list (a programming error: preferences are validated).
  */
 export function displayFactor(family: UnitFamily, unitId: string): number {
-  const key = `${family}|${unitId}`;
-  const cached = factorCache.get(key);
-  if (cached !== undefined) return cached;
-  let f: number;
-  if (family === "none") f = 1;
-  else if (family === "resistance") {
-    // Pa·s/m³ → mbar/(µL/min): R × (1 µL/min in m³/s) is a pressure per µL/min, in Pa; then Pa → mbar.
-    f = unitId === "Pa s/m^3" ? 1 : convertFromSI(1 / convertFromSI(1, "flow", "uL/min"), "pressure", "mbar");
-  } else f = convertFromSI(1, FAMILY_DIMENSION[family]!, unitId);
-  factorCache.set(key, f);
+  const f = PER_SI[family]?.[unitId];
+  if (f === undefined) throw new Error(`No display unit "${unitId}" for ${family}.`);
   return f;
 }
 

@@ -23,8 +23,32 @@ import {
   resolveUnit,
   suggestScale,
   toDisplayValue,
-  unitPreferencesSchema,
 } from "@/lib/analysis/quantities";
+import { unitPreferencesSchema } from "@/lib/analysis/unit-preferences";
+import { convertFromSI, type Dimension } from "@/lib/units/quantity";
+
+describe("the display-factor table agrees with mathjs's unit system", () => {
+  // The table is written from the units' definitions; mathjs (an independent implementation of the
+  // same definitions) must give the same factor. mathjs's psi is 6894.75729276 Pa, 6e-11 from NIST's
+  // exact 6894.757293168 Pa, hence the 1e-9 relative tolerance.
+  const DIMENSION: Record<string, Dimension> = { length: "length", pressure: "pressure", flow: "flow", velocity: "velocity", stress: "pressure", time: "time" };
+  for (const [family, units] of Object.entries(DISPLAY_UNITS)) {
+    if (!(family in DIMENSION)) continue;
+    for (const u of units) {
+      it(`${family}: ${u.id}`, () => {
+        const fromMathjs = convertFromSI(1, DIMENSION[family], u.id);
+        expect(Math.abs(displayFactor(family as never, u.id) / fromMathjs - 1)).toBeLessThan(1e-9);
+      });
+    }
+  }
+  it("resistance: mbar/(uL/min) is (1 µL/min in m³/s) × (Pa → mbar), both from mathjs", () => {
+    const f = convertFromSI(1 / convertFromSI(1, "flow", "uL/min"), "pressure", "mbar");
+    expect(Math.abs(displayFactor("resistance", "mbar/(uL/min)") / f - 1)).toBeLessThan(1e-12);
+  });
+  it("refuses a unit the catalogue does not list", () => {
+    expect(() => displayFactor("pressure", "furlong")).toThrow(/No display unit/);
+  });
+});
 
 describe("display units convert exactly (REFERENCES §8)", () => {
   const cases: [string, Parameters<typeof displayFactor>[0], string, number, number][] = [

@@ -10,7 +10,7 @@ import { PageHeader } from "@/components/ui/page-header";
 import { getAnalysis, getChip, getLatestAnalysisIdForRevision, getRevision, getRevisionById, getUserUnitPreferences, listAnalyses } from "@/db/queries/chips";
 import { MODEL_CAUTIONS } from "@/lib/analysis/cautions";
 import type { Conditions } from "@/lib/analysis/conditions";
-import { unitPreferencesSchema } from "@/lib/analysis/quantities";
+import { unitPreferencesSchema } from "@/lib/analysis/unit-preferences";
 import type { AnalyzeJson } from "@/lib/analysis/serialize";
 import { getPageAccess } from "@/lib/auth/page";
 import { adviceForFailure } from "@/lib/chips/service";
