@@ -6,7 +6,7 @@
  * converts to SI).
  */
 import { Delaunay } from "d3-delaunay";
-import { Region, signedArea, WallGrid, type Ring } from "./region";
+import { filledArea, Region, WallGrid, type Ring } from "./region";
 
 /** Samples per smallest width (common practice for Voronoi medial axes: a few samples across the narrowest gap). */
 export const SAMPLES_PER_WIDTH = 6;
@@ -61,8 +61,7 @@ export function extractMedialAxis(rings: Ring[], stepUnits?: number): MedialAxis
   let step = stepUnits;
   if (step === undefined) {
     // First guess from the shapes' hydraulic-width-like ratio 2·area/perimeter (a thin band's width), refined below.
-    let area = 0;
-    for (const r of rings) area += Math.abs(signedArea(r));
+    const area = Math.max(0, filledArea(rings));
     step = (2 * area) / Math.max(perimeter, 1e-300) / SAMPLES_PER_WIDTH;
   }
   const floor = perimeter / MAX_SAMPLES;

@@ -54,6 +54,41 @@ function cleanRing(r: Ring): Ring {
   return out;
 }
 
+/** Rings without repeated points, zero-length edges or zero area. */
+export function cleanRings(rings: Ring[]): Ring[] {
+  return rings.map(cleanRing).filter((r) => r.length >= 3 && Math.abs(signedArea(r)) > 0);
+}
+
+/**
+ * How many other rings contain each ring: even = outer boundary of filled area, odd = hole. A ring is nested
+ * in another when its box lies inside the other's and three spread vertices are inside it.
+ */
+export function nestingDepths(clean: Ring[]): number[] {
+  const boxes = clean.map(bboxOfRing);
+  // Rings sorted by box left edge: only rings starting further left can contain a ring.
+  const order = clean.map((_, i) => i).sort((a, b) => boxes[a][0] - boxes[b][0]);
+  return clean.map((r, i) => {
+    let d = 0;
+    const b = boxes[i];
+    for (const j of order) {
+      if (j === i) continue;
+      const o = boxes[j];
+      if (o[0] > b[0]) break;
+      if (b[1] < o[1] || b[2] > o[2] || b[3] > o[3]) continue;
+      const probes = [0, Math.floor(r.length / 3), Math.floor((2 * r.length) / 3)];
+      if (probes.every((k) => inRing(clean[j], r[k][0], r[k][1]))) d++;
+    }
+    return d;
+  });
+}
+
+/** Filled area of rings after nesting (outer boundaries minus holes), square drawing units. */
+export function filledArea(rings: Ring[]): number {
+  const clean = cleanRings(rings);
+  const depth = nestingDepths(clean);
+  return clean.reduce((acc, r, i) => acc + (depth[i] % 2 === 0 ? 1 : -1) * Math.abs(signedArea(r)), 0);
+}
+
 export class Region {
   /** Rings oriented so the filled side is on the left of every edge. */
   readonly rings: Ring[];
@@ -81,21 +116,8 @@ export class Region {
    * @param cellSize grid cell edge in drawing units (about the sampling step × 4 is a good choice).
    */
   constructor(rings: Ring[], cellSize: number) {
-    const clean = rings.map(cleanRing).filter((r) => r.length >= 3 && Math.abs(signedArea(r)) > 0);
-    const boxes = clean.map(bboxOfRing);
-    // A ring is nested in another when its box lies inside the other's and its vertices are inside (three spread ones tested).
-    const depth = clean.map((r, i) => {
-      let d = 0;
-      const b = boxes[i];
-      for (let j = 0; j < clean.length; j++) {
-        if (j === i) continue;
-        const o = boxes[j];
-        if (b[0] < o[0] || b[1] < o[1] || b[2] > o[2] || b[3] > o[3]) continue;
-        const probes = [0, Math.floor(r.length / 3), Math.floor((2 * r.length) / 3)];
-        if (probes.every((k) => inRing(clean[j], r[k][0], r[k][1]))) d++;
-      }
-      return d;
-    });
+    const clean = cleanRings(rings);
+    const depth = nestingDepths(clean);
     this.rings = clean.map((r, i) => {
       const ccw = signedArea(r) > 0;
       const wantCcw = depth[i] % 2 === 0;

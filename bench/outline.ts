@@ -1,0 +1,91 @@
+/**
+ * Outline reader speed: the same invented grid chip (n × n junctions at 400 µm
+ * pitch, 50 µm channels, 2·n·(n−1) ≥ 2,000 channels, ports at the corners)
+ * drawn once as centreline LINEs and once as its filled mask (one outer
+ * square with (n−1)² square holes), both through extractNetwork. Prints both
+ * times, the ratio (target under 3×, issue 9) and the segment counts.
+ * Printed, never asserted. Export: run().
+ */
+import { extractNetwork } from "../lib/network/extract";
+
+const PITCH_UM = 400;
+const WIDTH_UM = 50;
+const PORT_R_UM = 150;
+
+function header(): string[] {
+  return ["0", "SECTION", "2", "HEADER", "9", "$INSUNITS", "70", "13", "0", "ENDSEC", "0", "SECTION", "2", "ENTITIES"];
+}
+
+function ports(out: string[], n: number) {
+  const far = (n - 1) * PITCH_UM;
+  for (const [x, y] of [[0, 0], [far, 0], [0, far], [far, far]]) out.push("0", "CIRCLE", "8", "PORTS", "10", String(x), "20", String(y), "30", "0", "40", String(PORT_R_UM));
+  out.push("0", "ENDSEC", "0", "EOF");
+}
+
+/** Centreline grid: one LINE per channel. */
+export function gridCentrelines(n: number): string {
+  const out = header();
+  const line = (x0: number, y0: number, x1: number, y1: number) => out.push("0", "LINE", "8", "FLOW", "10", String(x0), "20", String(y0), "30", "0", "11", String(x1), "21", String(y1), "31", "0");
+  for (let i = 0; i < n; i++)
+    for (let j = 0; j + 1 < n; j++) {
+      line(j * PITCH_UM, i * PITCH_UM, (j + 1) * PITCH_UM, i * PITCH_UM);
+      line(i * PITCH_UM, j * PITCH_UM, i * PITCH_UM, (j + 1) * PITCH_UM);
+    }
+  ports(out, n);
+  return out.join("\n") + "\n";
+}
+
+/** The same grid as a mask: the outer square grown by half a width, each cell's opening a square hole. */
+export function gridOutline(n: number): string {
+  const out = header();
+  const rect = (x0: number, y0: number, x1: number, y1: number) =>
+    out.push("0", "LWPOLYLINE", "8", "FLOW", "90", "4", "70", "1", "10", String(x0), "20", String(y0), "10", String(x1), "20", String(y0), "10", String(x1), "20", String(y1), "10", String(x0), "20", String(y1));
+  const h = WIDTH_UM / 2;
+  const far = (n - 1) * PITCH_UM;
+  rect(-h, -h, far + h, far + h);
+  for (let i = 0; i + 1 < n; i++) for (let j = 0; j + 1 < n; j++) rect(i * PITCH_UM + h, j * PITCH_UM + h, (i + 1) * PITCH_UM - h, (j + 1) * PITCH_UM - h);
+  ports(out, n);
+  return out.join("\n") + "\n";
+}
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)];
+}
+
+export async function run(): Promise<void> {
+  const n = 33;
+  const channels = 2 * n * (n - 1);
+  const lineText = gridCentrelines(n);
+  const maskText = gridOutline(n);
+  const lineConditions = { layers: { FLOW: { role: "channel" as const, width: `${WIDTH_UM} um`, depth: "20 um" }, PORTS: { role: "port" as const } } };
+  const maskConditions = { layers: { FLOW: { role: "channel" as const, depth: "20 um" }, PORTS: { role: "port" as const } } };
+  const time = (text: string, cond: typeof lineConditions | typeof maskConditions) => {
+    const t0 = performance.now();
+    const net = extractNetwork(text, cond);
+    return { ms: performance.now() - t0, net };
+  };
+  // Warm-up once each, then the median of 5.
+  time(lineText, lineConditions);
+  time(maskText, maskConditions);
+  const lineMs: number[] = [];
+  const maskMs: number[] = [];
+  let lineSegs = 0, maskSegs = 0;
+  let note = "";
+  for (let k = 0; k < 5; k++) {
+    const a = time(lineText, lineConditions);
+    const b = time(maskText, maskConditions);
+    lineMs.push(a.ms);
+    maskMs.push(b.ms);
+    lineSegs = a.net.segments.length;
+    maskSegs = b.net.segments.length;
+    note = b.net.warnings.find((w) => w.code === "outline_read")?.message ?? "";
+  }
+  const l = median(lineMs);
+  const m = median(maskMs);
+  console.log(`grid ${n} × ${n}: ${channels} channels; centreline DXF ${(lineText.length / 1048576).toFixed(2)} MiB, outline DXF ${(maskText.length / 1048576).toFixed(2)} MiB`);
+  console.log(`centreline path : ${l.toFixed(0)} ms (median of 5), ${lineSegs} segments`);
+  console.log(`outline path    : ${m.toFixed(0)} ms (median of 5), ${maskSegs} segments`);
+  console.log(`ratio outline / centreline: ${(m / l).toFixed(2)}× (target < 3×)`);
+  console.log(note);
+}
