@@ -41,8 +41,11 @@ interface Graph {
   x: Float64Array;
   y: Float64Array;
   r: Float64Array;
+  /** Neighbours per vertex; only vertices on the axis have an entry (read only for live vertices). */
   adj: number[][];
   alive: Uint8Array;
+  /** The vertices that have neighbours, ascending. */
+  verts: number[];
 }
 
 /**
@@ -146,7 +149,7 @@ function medialAxisAt(rings: Ring[], step: number): MedialAxisResult {
   }
   // Voronoi edges between inside circumcentres whose generating samples are far apart along the wall
   // (neighbouring samples on one wall give the spokes towards that wall, not the axis).
-  const adj: number[][] = Array.from({ length: nT }, () => []);
+  const adj: number[][] = new Array(nT);
   const minGap = 2.5 * step;
   for (let e = 0; e < halfedges.length; e++) {
     const o = halfedges[e];
@@ -159,11 +162,14 @@ function medialAxisAt(rings: Ring[], step: number): MedialAxisResult {
       const d = Math.abs(posOf[p] - posOf[q]);
       if (Math.min(d, per - d) < minGap) continue;
     }
-    adj[t1].push(t2);
-    adj[t2].push(t1);
+    (adj[t1] ??= []).push(t2);
+    (adj[t2] ??= []).push(t1);
   }
-  const g: Graph = { x: gx, y: gy, r: gr, adj, alive: new Uint8Array(nT) };
-  for (let t = 0; t < nT; t++) if (adj[t].length > 0) g.alive[t] = 1;
+  const g: Graph = { x: gx, y: gy, r: gr, adj, alive: new Uint8Array(nT), verts: [] };
+  for (let t = 0; t < nT; t++) if (adj[t] !== undefined) {
+    g.alive[t] = 1;
+    g.verts.push(t);
+  }
   const regions = countComponents(g);
   const pruneMin = prune(g, step);
   contractShort(g, step);
@@ -238,7 +244,7 @@ function countComponents(g: Graph): number {
   const seen = new Uint8Array(g.alive.length);
   let count = 0;
   const stack: number[] = [];
-  for (let v = 0; v < g.alive.length; v++) {
+  for (const v of g.verts) {
     if (!g.alive[v] || seen[v]) continue;
     count++;
     seen[v] = 1;
@@ -282,7 +288,7 @@ function prune(g: Graph, step: number): number {
     // Decide every spur of the round first, then remove them together: removing one at a time would let
     // its sibling spur merge into the channel before being looked at.
     const doomed: number[][] = [];
-    for (let v = 0; v < g.alive.length; v++) {
+    for (const v of g.verts) {
       if (!g.alive[v] || liveDegree(g, v) !== 1) continue;
       const first = g.adj[v].find((u) => g.alive[u])!;
       const br = walk(g, v, first);
@@ -303,7 +309,7 @@ function prune(g: Graph, step: number): number {
 function contractShort(g: Graph, step: number): void {
   for (let round = 0; round < 10; round++) {
     let merged = 0;
-    for (let v = 0; v < g.alive.length; v++) {
+    for (const v of g.verts) {
       if (!g.alive[v] || liveDegree(g, v) < 3) continue;
       for (const u of g.adj[v]) {
         if (!g.alive[u] || !g.alive[v]) continue;
@@ -333,19 +339,20 @@ function contractShort(g: Graph, step: number): void {
 /** Branches between vertices of degree ≠ 2 (and one per loop without such a vertex). */
 function listBranches(g: Graph): number[][] {
   const out: number[][] = [];
-  const usedEdge = new Set<string>();
-  const key = (a: number, b: number) => (a < b ? `${a}:${b}` : `${b}:${a}`);
+  const usedEdge = new Set<number>();
+  const n = g.alive.length;
+  const key = (a: number, b: number) => (a < b ? a * n + b : b * n + a);
   const take = (from: number, first: number) => {
     if (usedEdge.has(key(from, first))) return;
     const br = walk(g, from, first);
     for (let i = 1; i < br.length; i++) usedEdge.add(key(br[i - 1], br[i]));
     out.push(br);
   };
-  for (let v = 0; v < g.alive.length; v++) {
+  for (const v of g.verts) {
     if (!g.alive[v] || liveDegree(g, v) === 2) continue;
     for (const u of g.adj[v]) if (g.alive[u]) take(v, u);
   }
-  for (let v = 0; v < g.alive.length; v++) {
+  for (const v of g.verts) {
     if (!g.alive[v] || liveDegree(g, v) !== 2) continue;
     for (const u of g.adj[v]) if (g.alive[u] && !usedEdge.has(key(v, u))) {
       const br = walk(g, v, u);
