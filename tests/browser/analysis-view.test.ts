@@ -11,7 +11,10 @@ import type { Browser, Page } from "playwright-core";
 import { BASE_URL, launch, signIn } from "./support";
 
 const SHOTS = "/tmp/shots/view";
-const CHIP = "Serpentine mixer SM-2";
+// Droplet generator DG-1: revision 2 widened the orifice (db/seed-chips.ts), and its nominal
+// analysis raises segment flags on some segments but not all, so the flagged filter can be seen to narrow.
+const CHIP = "Droplet generator DG-1";
+const POINT = "nominal 5:1";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -28,13 +31,13 @@ async function openPage(width: number, height: number): Promise<{ page: Page; cl
   return { page, close: () => context.close() };
 }
 
-/** From the signed-in overview to an analysed revision of the demo mixer, by clicking. */
+/** From the signed-in overview to the nominal analysis of a revision of the demo droplet generator, by clicking. */
 async function openDemoAnalysis(page: Page, revision: number): Promise<void> {
   await page.getByRole("navigation").getByRole("link", { name: "Chips", exact: true }).first().click();
   await page.waitForURL(/\/chips$/);
   await page.getByTestId("chip-link").filter({ hasText: CHIP }).click();
   await page.getByTestId("revision-timeline").waitFor();
-  await page.locator(`[data-testid="revision-entry"][data-revision="${revision}"]`).getByTestId("analysis-link").first().click();
+  await page.locator(`[data-testid="revision-entry"][data-revision="${revision}"]`).getByTestId("analysis-link").filter({ hasText: POINT }).click();
   await page.waitForURL(/\/analyses\/\d+/);
   await page.getByTestId("chip-drawing").waitFor();
   await page.locator("tr[data-segment]").first().waitFor();
@@ -64,8 +67,7 @@ describe("analysis view", () => {
     const { page, close } = await openPage(1440, 900);
     try {
       await signIn(page, "designer@brookmere.test");
-      // Revision 1 is the one whose mixing fell short (db/seed-chips.ts), so it has flagged segments.
-      await openDemoAnalysis(page, 1);
+      await openDemoAnalysis(page, 2);
       const stored = await storedAnalysis(page);
       const segments = stored.result.segments;
       expect(segments.length).toBeGreaterThan(1);
@@ -111,7 +113,9 @@ describe("analysis view", () => {
 
       // CSV export of exactly what is shown; parsed with d3-dsv (RFC 4180).
       const shown = await rowIds(page);
-      const headers = await page.locator("thead th").allTextContents();
+      const segmentTable = page.locator("table:has(tr[data-segment])");
+      const headers = await segmentTable.locator("thead th").allTextContents();
+      const shownCells = await segmentTable.locator("tbody tr[data-segment]").evaluateAll((rows) => rows.map((r) => [...r.querySelectorAll("td")].map((td) => td.textContent ?? "")));
       const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Export CSV" }).click()]);
       expect(download.suggestedFilename()).toMatch(/\.csv$/);
       const text = readFileSync((await download.path())!, "utf8");
@@ -119,6 +123,19 @@ describe("analysis view", () => {
       const [head, ...rows] = csvParseRows(text.trimEnd());
       expect(head.length).toBe(headers.length);
       expect(rows.map((r) => r[0])).toEqual(shown);
+      // Each number in the file is the number on screen, to the screen's rounding (3 significant digits, common practice).
+      let compared = 0;
+      rows.forEach((r, i) =>
+        r.forEach((cell, j) => {
+          const a = Number(cell);
+          const b = Number(shownCells[i][j].replace(/\u2212/g, "-").replace(/\s/g, ""));
+          if (cell !== "" && Number.isFinite(a) && Number.isFinite(b)) {
+            compared++;
+            expect(Math.abs(a - b)).toBeLessThanOrEqual(Math.abs(b) * 5e-3 + 1e-12);
+          }
+        }),
+      );
+      expect(compared).toBeGreaterThanOrEqual(rows.length * 5); // most columns are numbers
       expect(head.some((h) => /\(µm\)$/.test(h))).toBe(true); // sizes carry µm (the default length unit)
       expect(head.some((h) => /\((mbar|kPa|Pa|bar|psi)\)$/.test(h))).toBe(true); // a pressure column carries its unit
       await page.getByLabel("Only flagged").uncheck();
@@ -152,12 +169,7 @@ describe("analysis view", () => {
       await page.evaluate(() => window.scrollTo(0, 0));
       await page.screenshot({ path: `${SHOTS}/analysis-1440x900.png`, fullPage: true });
 
-      // Compare revision 2 with revision 1: back through the chip page, then the compare link opens a table of changes.
-      await page.getByRole("navigation", { name: "Breadcrumb" }).getByRole("link", { name: CHIP }).click();
-      await page.getByTestId("revision-timeline").waitFor();
-      await page.locator(`[data-testid="revision-entry"][data-revision="2"]`).getByTestId("analysis-link").first().click();
-      await page.waitForURL(/\/analyses\/\d+$/);
-      await page.getByTestId("chip-drawing").waitFor();
+      // Compare revision 2 with revision 1: the compare link opens a table of changes.
       await page.getByRole("navigation", { name: "Compare with" }).getByRole("link", { name: /^Revision 1/ }).click();
       await page.waitForURL(/compare=\d+/);
       const compare = page.getByTestId("compare-view");
@@ -165,8 +177,9 @@ describe("analysis view", () => {
       expect(await compare.getByRole("heading").first().textContent()).toMatch(/Changes from .*Revision 1.* to Revision 2/);
       expect(await compare.locator("table").count()).toBeGreaterThan(0);
       expect(await compare.locator("table tbody tr").count()).toBeGreaterThan(0);
-      // Rev 2 doubled the serpentine's turns (db/seed-chips.ts), so geometry changed.
-      expect(await compare.textContent()).toMatch(/[1-9]\d* (added|removed|changed)/);
+      // Rev 2 widened the orifice from 40 to 55 µm (db/seed-chips.ts): at least one segment changed.
+      expect(await compare.textContent()).toMatch(/[1-9]\d* changed/);
+      expect(await compare.getByRole("table", { name: "Changed segments" }).count()).toBe(1);
       await page.screenshot({ path: `${SHOTS}/compare-1440x900.png`, fullPage: true });
     } finally {
       await close();
@@ -177,7 +190,7 @@ describe("analysis view", () => {
     const { page, close } = await openPage(820, 1180);
     try {
       await signIn(page, "designer@brookmere.test");
-      await openDemoAnalysis(page, 1);
+      await openDemoAnalysis(page, 2);
       await page.getByLabel("Colour by").selectOption("reynolds");
       await revealLazyCharts(page);
       await page.getByRole("button", { name: "Draw profile" }).click();
