@@ -437,7 +437,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       const list = shapesByLayer.get(l.name)!;
       const src = drawing.entities.indexOf(list[0]);
       const read = readOutlineLayer(list);
-      for (const p of read.pieces) works.push({ p, len: pieceLength(p), layer, src, curveR: null });
+      read.pieces.forEach((p, k) => works.push({ p, len: pieceLength(p), layer, src, curveR: read.curveRadii[k] }));
       const um = (u: number) => fmt(u * mpu * 1e6);
       const ax = read.axis;
       warnings.push({

@@ -13,6 +13,8 @@ const CIRCLE_SIDES = 96;
 export interface OutlineLayerResult {
   /** Centreline pieces whose w0/w1 carry the local width (twice the wall distance), drawing units. */
   pieces: LinePiece[];
+  /** Smallest bend radius of the path each piece belongs to (drawing units), null where straight. */
+  curveRadii: (number | null)[];
   /** The medial axis and the tolerances it used. */
   axis: MedialAxisResult;
   /** The rings read, drawing units (for drawing the outline under the centrelines). */
@@ -48,13 +50,44 @@ export function readOutlineLayer(shapes: (PathEntity | CircleEntity)[], stepUnit
   const rings = ringsOf(shapes);
   const axis = extractMedialAxis(rings, stepUnits);
   const pieces: LinePiece[] = [];
+  const curveRadii: (number | null)[] = [];
   for (const path of axis.paths) {
+    const bend = bendRadius(path.points, path.radii);
     for (let i = 0; i + 1 < path.points.length; i++) {
       const [x0, y0] = path.points[i];
       const [x1, y1] = path.points[i + 1];
       if (x0 === x1 && y0 === y1) continue;
       pieces.push({ kind: "line", x0, y0, x1, y1, w0: 2 * path.radii[i], w1: 2 * path.radii[i + 1] });
+      curveRadii.push(bend);
     }
   }
-  return { pieces, axis, rings };
+  return { pieces, curveRadii, axis, rings };
+}
+
+/** Circumradius of three points (plane geometry: R = abc / 4·area). */
+function circumradius(a: [number, number], b: [number, number], c: [number, number]): number {
+  const ab = Math.hypot(b[0] - a[0], b[1] - a[1]);
+  const bc = Math.hypot(c[0] - b[0], c[1] - b[1]);
+  const ca = Math.hypot(a[0] - c[0], a[1] - c[1]);
+  const area2 = Math.abs((b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0]));
+  return area2 === 0 ? Infinity : (ab * bc * ca) / (2 * area2);
+}
+
+/**
+ * Smallest bend radius along a centreline from consecutive point triples, leaving out the first and last
+ * two local radii of the path (where it turns into a junction or ends); null when straight (radius above
+ * 1000 local widths).
+ */
+function bendRadius(points: [number, number][], radii: number[]): number | null {
+  const s = [0];
+  for (let i = 1; i < points.length; i++) s.push(s[i - 1] + Math.hypot(points[i][0] - points[i - 1][0], points[i][1] - points[i - 1][1]));
+  const total = s.at(-1)!;
+  let min = Infinity;
+  for (let i = 1; i + 1 < points.length; i++) {
+    const margin = 2 * radii[i];
+    if (s[i - 1] < margin || total - s[i + 1] < margin) continue;
+    const r = circumradius(points[i - 1], points[i], points[i + 1]);
+    if (r < 1000 * 2 * radii[i]) min = Math.min(min, r);
+  }
+  return Number.isFinite(min) ? min : null;
 }

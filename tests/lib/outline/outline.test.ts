@@ -69,6 +69,16 @@ describe("outline versions of straight and serpentine channels", () => {
   });
 });
 
+describe("bend radius from the outline's centreline", () => {
+  it("the serpentine's U-turns are found at 300 µm within 2 %; straight channels and T arms have none", () => {
+    // min_bend_radius_m of the centreline original (layouts/expected.json, the drawn ARC radius).
+    const serp = outlineNet("serpentine-r12-outline").segments[0];
+    expect(rel(serp.minBendRadiusM!, originals["serpentine-r12"].min_bend_radius_m)).toBeLessThan(0.02);
+    expect(outlineNet("straight-r2000-outline").segments[0].minBendRadiusM).toBeNull();
+    for (const s of outlineNet("tee-um-r2000-outline").segments) expect(s.minBendRadiusM).toBeNull();
+  });
+});
+
 describe("T and cross junctions from outlines", () => {
   for (const name of ["tee-um-r2000", "cross-r2000"]) {
     it(`${name}: same segments as the centreline original, junction at the crossing of the centrelines`, () => {
