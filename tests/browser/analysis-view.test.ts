@@ -180,6 +180,10 @@ describe("analysis view", () => {
       // Rev 2 widened the orifice from 40 to 55 µm (db/seed-chips.ts): at least one segment changed.
       expect(await compare.textContent()).toMatch(/[1-9]\d* changed/);
       expect(await compare.getByRole("table", { name: "Changed segments" }).count()).toBe(1);
+      await revealLazyCharts(page);
+      await page.evaluate(() => window.scrollTo(0, 0));
+      const wide = await page.evaluate(() => document.documentElement.scrollWidth <= document.documentElement.clientWidth);
+      expect(wide).toBe(true); // no sideways scroll at desktop width either
       await page.screenshot({ path: `${SHOTS}/compare-1440x900.png`, fullPage: true });
     } finally {
       await close();
@@ -192,6 +196,7 @@ describe("analysis view", () => {
       await signIn(page, "designer@brookmere.test");
       await openDemoAnalysis(page, 2);
       await page.getByLabel("Colour by").selectOption("reynolds");
+      await expect.poll(() => legendCaption(page)).toMatch(/^Reynolds number/);
       await revealLazyCharts(page);
       await page.getByRole("button", { name: "Draw profile" }).click();
       await page.getByTestId("pressure-profile").waitFor();
