@@ -5,6 +5,7 @@
  */
 const parts: { name: string; load: () => Promise<{ run: () => Promise<void> }> }[] = [
   { name: "layout reader: DXF to network", load: () => import("./geometry") },
+  { name: "outline reader: mask to network", load: () => import("./outline") },
   { name: "hydraulics solve", load: () => import("./solve") },
   { name: "chip drawing in headless Chromium", load: () => import("./drawing") },
 ];

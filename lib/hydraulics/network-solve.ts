@@ -7,6 +7,7 @@
  */
 import { SolveError } from "../errors";
 import { relativeResidual, solveSpdLdl, type SymmetricSystem } from "./sparse-ldl";
+import { UnionFind } from "../graph/union-find";
 
 export type ResolvedDrive =
   | { kind: "pressure"; pressurePa: number; as: "pressure" | "head" | "open" }
@@ -30,29 +31,6 @@ export interface GraphSolution {
   nonZeros: number;
   residualRel: number;
   method: string;
-}
-
-class UnionFind {
-  parent: Int32Array;
-  constructor(n: number) {
-    this.parent = new Int32Array(n);
-    for (let i = 0; i < n; i++) this.parent[i] = i;
-  }
-  find(i: number): number {
-    let r = i;
-    while (this.parent[r] !== r) r = this.parent[r];
-    while (this.parent[i] !== r) {
-      const next = this.parent[i];
-      this.parent[i] = r;
-      i = next;
-    }
-    return r;
-  }
-  union(a: number, b: number): void {
-    const ra = this.find(a);
-    const rb = this.find(b);
-    if (ra !== rb) this.parent[ra] = rb;
-  }
 }
 
 const fmtFlow = (q: number) => `${(q * 6e10).toPrecision(4)} µL/min`;

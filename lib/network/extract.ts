@@ -17,6 +17,7 @@ import { CellHash, joinNearPoints, StaticGrid } from "./grid";
 import { describeLayers, planLayers, type LayerPlan, type ResolvedLayer } from "./layers";
 import { readOutlineLayer } from "../outline/read";
 import type { ChannelNetwork, LayoutWarning, NetworkNode, NetworkPort, NetworkSegment, NodeKind, WidthSample } from "./types";
+import { UnionFind } from "../graph/union-find";
 
 /** Endpoint-merging tolerance when the conditions give none, metres (common practice: below a 1 µm mask grid). */
 export const DEFAULT_SNAP_M = 0.5e-6;
@@ -43,31 +44,6 @@ interface PortCircle {
   cy: number;
   r: number;
   name: string;
-}
-
-/** Disjoint sets with path compression: a dozen lines, so written here rather than installed. */
-class UnionFind {
-  readonly parent: Int32Array;
-  constructor(n: number) {
-    this.parent = new Int32Array(n);
-    for (let i = 0; i < n; i++) this.parent[i] = i;
-  }
-  find(i: number): number {
-    let r = i;
-    while (this.parent[r] !== r) r = this.parent[r];
-    while (this.parent[i] !== r) {
-      const next = this.parent[i];
-      this.parent[i] = r;
-      i = next;
-    }
-    return r;
-  }
-  /** Join the sets of a and b (the smaller index becomes the root). */
-  union(a: number, b: number): void {
-    const ra = this.find(a);
-    const rb = this.find(b);
-    if (ra !== rb) this.parent[Math.max(ra, rb)] = Math.min(ra, rb);
-  }
 }
 
 const fmt = (v: number) => Number(v.toPrecision(6)).toString();
