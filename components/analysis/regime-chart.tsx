@@ -236,14 +236,14 @@ export function RegimeChart({ analysis, flagsBySegment, selectedId, onSelect }: 
           <g key={`tx${t.label}`}>
             <line x1={xs(t.value)} x2={xs(t.value)} y1={M.top} y2={H - M.bottom} stroke="#37506c" strokeDasharray="5 3" />
             <title>{`${t.label}: ${t.source}`}</title>
-            <text x={xs(t.value) + 3} y={H - M.bottom - 4} className="fill-ink-700 text-[9px]" transform={`rotate(-90 ${xs(t.value) + 3} ${H - M.bottom - 4})`}>{t.label}</text>
+            <text x={xs(t.value) + 3} y={H - M.bottom - 4} dominantBaseline="hanging" stroke="#ffffff" strokeWidth={3} paintOrder="stroke" className="fill-ink-700 text-[10px]" transform={`rotate(-90 ${xs(t.value) + 3} ${H - M.bottom - 4})`}>{t.label}</text>
           </g>
         ))}
         {yT.map((t) => (
           <g key={`ty${t.label}`}>
             <line x1={M.left} x2={W - M.right} y1={ys(t.value)} y2={ys(t.value)} stroke="#37506c" strokeDasharray="2 3" />
             <title>{`${t.label}: ${t.source}`}</title>
-            <text x={M.left + 4} y={ys(t.value) - 3} className="fill-ink-700 text-[9px]">{t.label}</text>
+            <text x={M.left + 4} y={ys(t.value) - 3} stroke="#ffffff" strokeWidth={3} paintOrder="stroke" className="fill-ink-700 text-[10px]">{t.label}</text>
           </g>
         ))}
         <rect x={M.left} y={M.top} width={W - M.left - M.right} height={H - M.top - M.bottom} fill="none" stroke="#9aaec4" />

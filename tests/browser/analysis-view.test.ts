@@ -142,6 +142,12 @@ describe("analysis view", () => {
 
       // Pressure profile between two ports: points appear, one per node on the path.
       await revealLazyCharts(page);
+      // The regime map's threshold labels sit beside their dashed lines, not on them (readability, common practice).
+      const labelGaps = await page.getByTestId("regime-chart").locator("g:has(> line[stroke-dasharray='5 3']) ").evaluateAll((groups) =>
+        groups.map((g) => g.querySelector("text")!.getBoundingClientRect().left - g.querySelector("line")!.getBoundingClientRect().right),
+      );
+      expect(labelGaps.length).toBeGreaterThan(0);
+      for (const gap of labelGaps) expect(gap).toBeGreaterThanOrEqual(0);
       await page.getByRole("button", { name: "Draw profile" }).click();
       const chart = page.getByTestId("pressure-profile");
       await chart.waitFor();
