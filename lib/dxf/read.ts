@@ -331,6 +331,11 @@ function stripMtext(text: string): string {
 
 function pushPath(ctx: Ctx, layer: string, type: string, handle: string | null, pieces: Piece[], closed: boolean, m: Affine, curveRadius: number | null) {
   if (pieces.length === 0) return;
+  if (m === IDENTITY) {
+    // Model space, untransformed: the pieces as they are (the common case; no wrapper objects).
+    ctx.out.push({ kind: "path", layer, type, handle, pieces, closed, minCurveRadius: curveRadius });
+    return;
+  }
   const t = transformPieces(pieces, m, ctx.tol);
   let radius = curveRadius === null ? null : curveRadius * Math.sqrt(Math.abs(det(m)));
   if (t.flattenedRadius !== null) radius = radius === null ? t.flattenedRadius : Math.min(radius, t.flattenedRadius);
@@ -503,15 +508,18 @@ function expandInsert(ctx: Ctx, e: AnyEntity, m: Affine, layer: string, depth: n
   }
 }
 
+const fin = Number.isFinite;
+// Checked field by field: no array per piece (20k+ pieces on a large layout).
+const badPiece = (p: Piece) => (p.kind === "line" ? !(fin(p.x0) && fin(p.y0) && fin(p.x1) && fin(p.y1)) : !(fin(p.cx) && fin(p.cy) && fin(p.r) && fin(p.a0) && fin(p.sweep)));
+const badEntity = (e: DrawingEntity) => {
+  if (e.kind === "circle") return !(fin(e.cx) && fin(e.cy) && fin(e.r));
+  if (e.kind === "text") return !(fin(e.x) && fin(e.y));
+  for (const p of e.pieces) if (badPiece(p)) return true;
+  return false;
+};
+
 function checkFinite(entities: DrawingEntity[]) {
-  const bad = (e: DrawingEntity) => {
-    if (e.kind === "circle") return ![e.cx, e.cy, e.r].every(Number.isFinite);
-    if (e.kind === "text") return ![e.x, e.y].every(Number.isFinite);
-    return e.pieces.some((p) =>
-      p.kind === "line" ? ![p.x0, p.y0, p.x1, p.y1].every(Number.isFinite) : ![p.cx, p.cy, p.r, p.a0, p.sweep].every(Number.isFinite),
-    );
-  };
-  const e = entities.find(bad);
+  const e = entities.find(badEntity);
   if (e) {
     throw new LayoutError(
       "non_finite_coordinates",

@@ -12,7 +12,7 @@ import { LayoutError } from "../errors";
 import { readDxf, MAX_LAYOUT_BYTES } from "../dxf/read";
 import type { CircleEntity, DxfDrawing, PathEntity, Piece, TextEntity } from "../dxf/types";
 import { parseQuantity } from "../units/quantity";
-import { bboxOf, circleCrossings, endOf, intersect, pieceLength, pointAt, project, reversed, samplePoints, startOf, subPiece } from "./geometry";
+import { bboxInto, bboxOf, circleCrossings, endOf, intersect, pieceLength, pointAt, project, reversed, samplePoints, startOf, subPiece } from "./geometry";
 import { CellHash, joinNearPoints, StaticGrid } from "./grid";
 import { describeLayers, planLayers, type LayerPlan, type ResolvedLayer } from "./layers";
 import { readOutlineLayer } from "../outline/read";
@@ -52,8 +52,11 @@ function layoutError(code: string, message: string, plan?: LayerPlan): LayoutErr
   return new LayoutError(code, message, plan ? { layers: plan.summaries } : undefined);
 }
 
-/** Widths of a piece in metres at its two ends: its own drawn width, else the layer's. */
-function widthsOf(w: Work, mpu: number): [number, number] {
+/**
+ * Widths of a piece in metres at its two ends (its own drawn width, else the layer's), written to
+ * out[at] and out[at + 1]; one shared array instead of a tuple per piece.
+ */
+function widthsInto(w: Work, mpu: number, out: Float64Array, at: number): void {
   const lw = w.layer.widthM;
   const w0 = w.p.w0 === null ? lw : w.p.w0 * mpu;
   const w1 = w.p.w1 === null ? lw : w.p.w1 * mpu;
@@ -63,7 +66,8 @@ function widthsOf(w: Work, mpu: number): [number, number] {
       `Channels on layer "${w.layer.name}" have no drawn width and the layer has none: add "width" (e.g. "100 um") to conditions.layers.${w.layer.name}, or draw the centrelines as polylines with a width.`,
     );
   }
-  return [w0, w1];
+  out[at] = w0;
+  out[at + 1] = w1;
 }
 
 function nameports(circles: CircleEntity[], texts: TextEntity[], warnings: LayoutWarning[], mpu: number): PortCircle[] {
@@ -107,12 +111,13 @@ function nameports(circles: CircleEntity[], texts: TextEntity[], warnings: Layou
 }
 
 const scratch: number[] = [];
+const scratchBox = new Float64Array(4);
 
 /** Cut away the parts of a piece inside any port circle. */
 function trimByPorts(w: Work, ports: PortCircle[], grid: StaticGrid | null): Work[] | null {
   if (!grid) return null;
-  const [minX, minY, maxX, maxY] = bboxOf(w.p);
-  const hits = grid.queryInto(minX, minY, maxX, maxY, scratch);
+  bboxInto(w.p, scratchBox, 0, 0);
+  const hits = grid.queryInto(scratchBox[0], scratchBox[1], scratchBox[2], scratchBox[3], scratch);
   if (hits.length === 0) return null;
   let parts: Work[] = [w];
   let changedAny = false;
@@ -365,9 +370,11 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   const shapesByLayer = new Map<string, (PathEntity | CircleEntity)[]>();
   const linesByLayer = new Map<string, number>();
   let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
-  const grow = (b: [number, number, number, number]) => {
+  const grow = (b: ArrayLike<number>) => {
     minX = Math.min(minX, b[0]); minY = Math.min(minY, b[1]); maxX = Math.max(maxX, b[2]); maxY = Math.max(maxY, b[3]);
   };
+  // One box reused for every channel piece (no tuple per piece).
+  const box = new Float64Array(4);
   drawing.entities.forEach((e, src) => {
     if (e.kind === "text") {
       texts.push(e);
@@ -396,7 +403,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       for (const p of e.pieces) {
         const len = pieceLength(p);
         if (!(len > 0)) continue;
-        const box = bboxOf(p);
+        bboxInto(p, box, 0, 0);
         grow(box);
         works.push({ p, len, layer, src, curveR: e.minCurveRadius });
       }
@@ -434,7 +441,8 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     }
   }
   try {
-    for (const w of works) widthsOf(w, mpu);
+    const two = new Float64Array(2);
+    for (const w of works) widthsInto(w, mpu, two, 0);
   } catch (e) {
     throw e instanceof LayoutError ? layoutError(e.code, e.message, plan) : e;
   }
@@ -484,12 +492,21 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   const uf = new UnionFind(nEnds + ports.length);
   const endX = new Float64Array(nEnds);
   const endY = new Float64Array(nEnds);
-  pieces.forEach((w, i) => {
-    const s = startOf(w.p);
-    const e = endOf(w.p);
+  for (let i = 0; i < pieces.length; i++) {
+    const p = pieces[i].p;
+    if (p.kind === "line") {
+      // Exactly pointAt(p, 0) and pointAt(p, 1), without the point objects.
+      const dx = p.x1 - p.x0;
+      const dy = p.y1 - p.y0;
+      endX[2 * i] = p.x0 + dx * 0; endY[2 * i] = p.y0 + dy * 0;
+      endX[2 * i + 1] = p.x0 + dx * 1; endY[2 * i + 1] = p.y0 + dy * 1;
+      continue;
+    }
+    const s = startOf(p);
+    const e = endOf(p);
     endX[2 * i] = s.x; endY[2 * i] = s.y;
     endX[2 * i + 1] = e.x; endY[2 * i + 1] = e.y;
-  });
+  }
   joinNearPoints(endX, endY, snap, (a, b) => uf.union(a, b));
   if (portGrid) {
     const near: number[] = [];
@@ -630,11 +647,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   const KINDS: NodeKind[] = ["port", "port", "junction", "dead_end", "change"];
   // End widths of every piece (metres): index 2i is piece i's start, 2i + 1 its end.
   const widthCache = new Float64Array(pieces.length * 2);
-  pieces.forEach((w, i) => {
-    const [a, b] = widthsOf(w, mpu);
-    widthCache[2 * i] = a;
-    widthCache[2 * i + 1] = b;
-  });
+  for (let i = 0; i < pieces.length; i++) widthsInto(pieces[i], mpu, widthCache, 2 * i);
   const endWidth = (k: number) => widthCache[k];
   const kindOf = new Int8Array(nAll);
   const stops: number[] = [];
@@ -740,6 +753,9 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   };
 }
 
+/** Steps for drawing an arc: every ≤ 5°, at least two. */
+const arcSteps = (sweep: number) => Math.max(2, Math.ceil(Math.abs(sweep) / (Math.PI / 36)));
+
 function makeSegment(
   id: string,
   from: string,
@@ -751,7 +767,14 @@ function makeSegment(
   mpu: number,
 ): NetworkSegment {
   const layer = pieces[chain[0]].layer;
-  const path: [number, number][] = [];
+  // The path's exact size up front: arrays grown by push keep spare capacity, which 20k short paths would hold on to.
+  let nPath = 1;
+  for (let c = 0; c < chain.length; c++) {
+    const p = pieces[chain[c]].p;
+    nPath += p.kind === "line" ? 1 : arcSteps(p.sweep);
+  }
+  const path = new Array<[number, number]>(nPath);
+  let np = 0;
   let profile: WidthSample[] | null = null;
   let s = 0;
   let minR: number | null = null;
@@ -768,21 +791,20 @@ function makeSegment(
     const b = widthCache[2 * chain[c] + 1];
     const w0 = fwd ? a : b;
     const w1 = fwd ? b : a;
-    if (path.length === 0) {
-      if (p.kind === "line") path.push(fwd ? [p.x0 * mpu, p.y0 * mpu] : [p.x1 * mpu, p.y1 * mpu]);
+    if (np === 0) {
+      if (p.kind === "line") path[np++] = fwd ? [p.x0 * mpu, p.y0 * mpu] : [p.x1 * mpu, p.y1 * mpu];
       else {
         const st = pointAt(p, fwd ? 0 : 1);
-        path.push([st.x * mpu, st.y * mpu]);
+        path[np++] = [st.x * mpu, st.y * mpu];
       }
       first = w0;
     }
-    if (p.kind === "line") path.push(fwd ? [p.x1 * mpu, p.y1 * mpu] : [p.x0 * mpu, p.y0 * mpu]);
+    if (p.kind === "line") path[np++] = fwd ? [p.x1 * mpu, p.y1 * mpu] : [p.x0 * mpu, p.y0 * mpu];
     else {
-      // Arcs drawn every ≤ 5°, at least two steps.
-      const n = Math.max(2, Math.ceil(Math.abs(p.sweep) / (Math.PI / 36)));
+      const n = arcSteps(p.sweep);
       for (let k = 1; k <= n; k++) {
         const q = pointAt(p, fwd ? k / n : 1 - k / n);
-        path.push([q.x * mpu, q.y * mpu]);
+        path[np++] = [q.x * mpu, q.y * mpu];
       }
     }
     // A width profile only when widths vary along the segment.
@@ -814,8 +836,7 @@ function makeSegment(
     depthM: layer.depthM as number,
     section: layer.section,
     minBendRadiusM: minR === null ? null : minR * mpu,
-    // An exact-size copy: arrays grown by push keep spare capacity, which 20k short paths would hold on to.
-    path: path.slice(),
+    path,
   };
   if (minW !== maxW) {
     seg.minWidthM = minW;

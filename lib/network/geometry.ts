@@ -69,6 +69,25 @@ export function bboxOf(p: Piece): [number, number, number, number] {
   return [minX, minY, maxX, maxY];
 }
 
+/**
+ * Axis-aligned bounds written into out[at … at+3] (minX, minY, maxX, maxY), grown by `pad`; the same
+ * box as bboxOf without allocating for lines (hot loops over 20k+ pieces).
+ */
+export function bboxInto(p: Piece, out: Float64Array, at: number, pad: number): void {
+  if (p.kind === "line") {
+    out[at] = Math.min(p.x0, p.x1) - pad;
+    out[at + 1] = Math.min(p.y0, p.y1) - pad;
+    out[at + 2] = Math.max(p.x0, p.x1) + pad;
+    out[at + 3] = Math.max(p.y0, p.y1) + pad;
+    return;
+  }
+  const b = bboxOf(p);
+  out[at] = b[0] - pad;
+  out[at + 1] = b[1] - pad;
+  out[at + 2] = b[2] + pad;
+  out[at + 3] = b[3] + pad;
+}
+
 /** Length fraction of polar angle `ang` on an arc, or null when the angle is outside the arc. */
 export function arcFraction(p: ArcPiece, ang: number): number | null {
   let d = p.sweep >= 0 ? ang - p.a0 : p.a0 - ang;
