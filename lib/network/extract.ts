@@ -10,9 +10,9 @@
 import type { GeometryConditions } from "../analysis/conditions";
 import { LayoutError } from "../errors";
 import { readDxf, MAX_LAYOUT_BYTES } from "../dxf/read";
-import type { CircleEntity, DxfDrawing, PathEntity, Piece, TextEntity } from "../dxf/types";
+import type { ArcPiece, CircleEntity, LinePiece, DxfDrawing, PathEntity, Piece, TextEntity } from "../dxf/types";
 import { parseQuantity } from "../units/quantity";
-import { bboxInto, bboxOf, circleCrossings, endOf, intersect, pieceLength, pointAt, project, reversed, samplePoints, startOf, subPiece } from "./geometry";
+import { arcFraction, bboxInto, bboxOf, circleCrossings, endOf, intersect, lineArcHits, pieceLength, pointAt, reversed, samplePoints, startOf, subPiece } from "./geometry";
 import { CellHash, joinNearPoints, StaticGrid } from "./grid";
 import { describeLayers, planLayers, type LayerPlan, type ResolvedLayer } from "./layers";
 import { readOutlineLayer } from "../outline/read";
@@ -232,9 +232,13 @@ function findSplits(works: Work[], snap: number): (number[] | null)[] {
     }
     const dc = Math.sqrt((x - CX[j]) * (x - CX[j]) + (y - CY[j]) * (y - CY[j])) - R[j];
     if (dc > snap || dc < -snap) return;
-    const pr = project(works[j].p, x, y);
-    if (pr.dist <= snap && interior(j, pr.t)) add(j, pr.t);
+    // project() on an arc, without its result object: off the arc's angles the nearest point is an end (t 0 or 1), never interior.
+    const arc = works[j].p as ArcPiece;
+    const t = arcFraction(arc, Math.atan2(y - arc.cy, x - arc.cx));
+    if (t === null) return;
+    if (Math.abs(Math.hypot(x - arc.cx, y - arc.cy) - arc.r) <= snap && interior(j, t)) add(j, t);
   };
+  const hits = new Float64Array(8);
   const grid = new StaticGrid(chooseCellSize(boxes, snap), boxes);
   grid.forEachOverlappingPair(boxes, (i, j) => {
     if (isLine[i] && isLine[j]) {
@@ -252,6 +256,17 @@ function findSplits(works: Work[], snap: number): (number[] | null)[] {
           if (interior(i, t)) add(i, t);
           if (interior(j, u)) add(j, u);
         }
+      }
+    } else if (isLine[i] || isLine[j]) {
+      // Line and arc: intersect() without its result arrays.
+      const li = isLine[i] ? i : j;
+      const ai = li === i ? j : i;
+      const n = lineArcHits(works[li].p as LinePiece, works[ai].p as ArcPiece, hits);
+      for (let k = 0; k < n; k++) {
+        const t = li === i ? hits[4 * k] : hits[4 * k + 1];
+        const u = li === i ? hits[4 * k + 1] : hits[4 * k];
+        if (interior(i, t)) add(i, t);
+        if (interior(j, u)) add(j, u);
       }
     } else {
       for (const h of intersect(works[i].p, works[j].p)) {

@@ -185,14 +185,45 @@ function lineLine(p: LinePiece, q: LinePiece) {
 
 function lineArc(p: LinePiece, a: ArcPiece) {
   const out: { t: number; u: number; x: number; y: number }[] = [];
-  for (const t of lineCircleParams(p.x0, p.y0, p.x1 - p.x0, p.y1 - p.y0, a.cx, a.cy, a.r)) {
-    if (!inUnit(t)) continue;
-    const x = p.x0 + (p.x1 - p.x0) * t;
-    const y = p.y0 + (p.y1 - p.y0) * t;
-    const u = arcFraction(a, Math.atan2(y - a.cy, x - a.cx));
-    if (u !== null) out.push({ t: clamp01(t), u, x, y });
-  }
+  const n = lineArcHits(p, a, hitScratch);
+  for (let k = 0; k < n; k++) out.push({ t: hitScratch[4 * k], u: hitScratch[4 * k + 1], x: hitScratch[4 * k + 2], y: hitScratch[4 * k + 3] });
   return out;
+}
+
+const hitScratch = new Float64Array(8);
+
+/**
+ * Where a line meets an arc, without allocating (hot pair loops): writes (t on the line, u on the arc, x, y)
+ * for each of at most two meeting points into out[4k … 4k+3] and returns how many.
+ */
+export function lineArcHits(p: LinePiece, a: ArcPiece, out: Float64Array): number {
+  // The line–circle quadratic of lineCircleParams, roots in the same order.
+  const dx = p.x1 - p.x0;
+  const dy = p.y1 - p.y0;
+  const fx = p.x0 - a.cx;
+  const fy = p.y0 - a.cy;
+  const qa = dx * dx + dy * dy;
+  const qb = 2 * (fx * dx + fy * dy);
+  const qc = fx * fx + fy * fy - a.r * a.r;
+  const disc = qb * qb - 4 * qa * qc;
+  if (qa === 0 || disc < 0) return 0;
+  const sq = Math.sqrt(disc);
+  const roots = disc === 0 ? 1 : 2;
+  let n = 0;
+  for (let k = 0; k < roots; k++) {
+    const t = roots === 1 ? -qb / (2 * qa) : k === 0 ? (-qb - sq) / (2 * qa) : (-qb + sq) / (2 * qa);
+    if (!inUnit(t)) continue;
+    const x = p.x0 + dx * t;
+    const y = p.y0 + dy * t;
+    const u = arcFraction(a, Math.atan2(y - a.cy, x - a.cx));
+    if (u === null) continue;
+    out[4 * n] = clamp01(t);
+    out[4 * n + 1] = u;
+    out[4 * n + 2] = x;
+    out[4 * n + 3] = y;
+    n++;
+  }
+  return n;
 }
 
 /** Length fractions where a piece crosses the circle (c, r), sorted. */
