@@ -368,7 +368,6 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   if (plan.unmapped.length > 0) warnings.push({ code: "layers_unmapped", message: `Layers not named in the conditions were not read: ${plan.unmapped.join(", ")}. Map them in conditions.layers if they matter.` });
   if (plan.mappingProposed) warnings.push({ code: "mapping_proposed", message: "The conditions name no layers, so Stokeline proposed a mapping from the layers' contents (circles → ports, paths → channels). Check it and save your own." });
 
-  const roleOf = (layer: string) => plan.byName.get(layer)?.role ?? "ignore";
   const channelLayers = plan.summaries.filter((l) => l.role === "channel");
   if (channelLayers.length === 0) {
     throw layoutError("no_channel_layer", `No layer is mapped to the role "channel", so there is no channel network to read. Layers in this drawing: ${describeLayers(plan.summaries)}. Name the channel layer in conditions.layers.`, plan);
@@ -390,12 +389,25 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   };
   // One box reused for every channel piece (no tuple per piece).
   const box = new Float64Array(4);
+  // The last layer looked up, remembered: entities come in long runs on one layer (one Map lookup per run).
+  let lastName: string | null = null;
+  let lastLayer: ResolvedLayer | undefined;
+  let lastLines = 0;
+  const flushLines = () => {
+    if (lastLines > 0) linesByLayer.set(lastName!, (linesByLayer.get(lastName!) ?? 0) + lastLines);
+    lastLines = 0;
+  };
   drawing.entities.forEach((e, src) => {
     if (e.kind === "text") {
       texts.push(e);
       return;
     }
-    const role = roleOf(e.layer);
+    if (e.layer !== lastName) {
+      flushLines();
+      lastName = e.layer;
+      lastLayer = plan.byName.get(e.layer);
+    }
+    const role = lastLayer?.role ?? "ignore";
     if ((role === "port" || role === "outline") && e.kind === "circle") grow([e.cx - e.r, e.cy - e.r, e.cx + e.r, e.cy + e.r]);
     else if (role === "port" || role === "outline" || (role === "channel" && e.kind === "circle")) {
       if (e.kind === "circle") grow([e.cx - e.r, e.cy - e.r, e.cx + e.r, e.cy + e.r]);
@@ -406,7 +418,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       if (e.kind === "circle") outlineCircles.push(e);
       else outlinePaths.push(e);
     } else if (role === "channel") {
-      const layer = plan.byName.get(e.layer)!;
+      const layer = lastLayer!;
       const drawnWidth = e.kind === "path" && e.pieces.some((p) => p.w0 !== null);
       if (e.kind === "circle" || (e.closed && !drawnWidth)) {
         if (e.kind === "path") for (const p of e.pieces) grow(bboxOf(p));
@@ -414,7 +426,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
         (shapesByLayer.get(e.layer) ?? shapesByLayer.set(e.layer, []).get(e.layer)!).push(e);
         return;
       }
-      linesByLayer.set(e.layer, (linesByLayer.get(e.layer) ?? 0) + 1);
+      lastLines++;
       for (const p of e.pieces) {
         const len = pieceLength(p);
         if (!(len > 0)) continue;
@@ -424,6 +436,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       }
     }
   });
+  flushLines();
   for (const l of plan.summaries) {
     if (l.role !== "channel") continue;
     const shapes = shapesByLayer.get(l.name)?.length ?? 0;
