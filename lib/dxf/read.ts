@@ -158,6 +158,9 @@ interface Ctx {
   counts: Map<string, Record<string, number>>;
   notes: Map<string, { code: string; message: string; n: number }>;
   expanded: number;
+  /** The last layer counted and its counts: entities come in runs on one layer (one Map lookup per run). */
+  lastLayer: string | null;
+  lastCounts: Record<string, number> | null;
 }
 
 function note(ctx: Ctx, code: string, message: string) {
@@ -167,8 +170,10 @@ function note(ctx: Ctx, code: string, message: string) {
 }
 
 function count(ctx: Ctx, layer: string, type: string) {
-  let c = ctx.counts.get(layer);
+  let c = layer === ctx.lastLayer ? ctx.lastCounts : ctx.counts.get(layer);
   if (!c) ctx.counts.set(layer, (c = {}));
+  ctx.lastLayer = layer;
+  ctx.lastCounts = c;
   c[type] = (c[type] ?? 0) + 1;
   if (++ctx.expanded > MAX_EXPANDED_ENTITIES) {
     throw new LayoutError("too_many_entities", `The layout expands to more than ${MAX_EXPANDED_ENTITIES.toLocaleString("en")} entities (block arrays inside arrays?). Explode or simplify the blocks and export again.`);
@@ -378,12 +383,15 @@ function walk(ctx: Ctx, entities: IEntity[], m: Affine, parentLayer: string | nu
         break;
       }
       case "LWPOLYLINE": {
-        const vs = ((e.vertices as ({ x: number; y: number; bulge?: number; startWidth?: number; endWidth?: number } | undefined)[] | undefined) ?? []).map((v) => {
-          requirePoint(v, type, layer, handle);
-          return v!;
-        });
+        const vs = (e.vertices as ({ x: number; y: number; bulge?: number; startWidth?: number; endWidth?: number } | undefined)[] | undefined) ?? [];
         const constW = typeof e.width === "number" ? e.width : null;
-        const verts = vs.map((v) => ({ x: v.x, y: v.y, bulge: v.bulge ?? 0, sw: v.startWidth ?? constW, ew: v.endWidth ?? constW }));
+        // One pass: each vertex checked and converted (no intermediate array).
+        const verts: Vtx[] = new Array(vs.length);
+        for (let k = 0; k < vs.length; k++) {
+          const v = vs[k];
+          requirePoint(v, type, layer, handle);
+          verts[k] = { x: v!.x, y: v!.y, bulge: v!.bulge ?? 0, sw: v!.startWidth ?? constW, ew: v!.endWidth ?? constW };
+        }
         pushPath(ctx, layer, type, handle, polylinePieces(verts, Boolean(e.shape)), Boolean(e.shape), ocs, null);
         break;
       }
@@ -551,7 +559,7 @@ export function readDxf(input: string | Uint8Array, options: ReadDxfOptions): Dx
     : `The drawing ${declared}. Say which unit its coordinates are in: add "units": "um" (or nm, mm, cm, m, in, mil) to the conditions.`;
   // Without known units, flatten as if in micrometres: only the layer listing uses such a read.
   const tol = options.chordToleranceM / (units?.metresPerUnit ?? 1e-6);
-  const ctx: Ctx = { blocks: dxf.blocks ?? {}, tol, out: [], counts: new Map(), notes: new Map(), expanded: 0 };
+  const ctx: Ctx = { blocks: dxf.blocks ?? {}, tol, out: [], counts: new Map(), notes: new Map(), expanded: 0, lastLayer: null, lastCounts: null };
   // Some writers put model space only in the *Model_Space block and leave out the ENTITIES section.
   const modelBlock = Object.entries(ctx.blocks).find(([name]) => name.toLowerCase() === "*model_space")?.[1];
   const top = dxf.entities && dxf.entities.length > 0 ? dxf.entities : (modelBlock?.entities ?? []);
