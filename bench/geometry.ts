@@ -6,7 +6,9 @@
  * dxf-parser parse of the same text, and the heap the result holds against the
  * file size. Targets (issue 3): ratio ≤ 1.5×, heap < 10× the file.
  */
+import { PerformanceObserver, type PerformanceEntry } from "node:perf_hooks";
 import v8 from "node:v8";
+import os from "node:os";
 import vm from "node:vm";
 import DxfParser from "dxf-parser";
 import { extractNetwork } from "../lib/network/extract";
@@ -59,10 +61,17 @@ export async function run(): Promise<void> {
   const parseMs: number[] = [];
   const extractMs: number[] = [];
   const stageMs = new Map<string, number[]>();
+  // Garbage-collector pauses, for the figures only: entries are delivered after the loop, then matched to each run's time span.
+  const gcEntries: PerformanceEntry[] = [];
+  const gcObserver = new PerformanceObserver((list) => gcEntries.push(...list.getEntries()));
+  gcObserver.observe({ entryTypes: ["gc"] });
+  const parseSpans: [number, number][] = [];
+  const extractSpans: [number, number][] = [];
   for (let k = 0; k < 7; k++) {
     let t0 = performance.now();
     new DxfParser().parseSync(text);
     parseMs.push(performance.now() - t0);
+    parseSpans.push([t0, performance.now()]);
     t0 = performance.now();
     let prev = t0;
     extractNetwork(bytes, conditions, {
@@ -73,7 +82,11 @@ export async function run(): Promise<void> {
       },
     });
     extractMs.push(performance.now() - t0);
+    extractSpans.push([t0, performance.now()]);
   }
+  await new Promise((resolve) => setTimeout(resolve, 20));
+  gcObserver.disconnect();
+  const gcIn = ([a, b]: [number, number]) => gcEntries.filter((g) => g.startTime >= a && g.startTime < b).reduce((sum, g) => sum + g.duration, 0);
 
   // Memory: heap retained by the result, and the largest heap seen at a stage boundary during one extract;
   // beside them, what the bare parse alone holds (its result is the DXF object).
@@ -97,6 +110,11 @@ export async function run(): Promise<void> {
   console.log(`bare dxf-parser parse : ${p.toFixed(0)} ms (median of 7; best ${Math.min(...parseMs).toFixed(0)})`);
   console.log(`whole extract path    : ${e.toFixed(0)} ms (median of 7; best ${Math.min(...extractMs).toFixed(0)})`);
   console.log(`ratio extract / parse : ${(e / p).toFixed(2)}× (target ≤ 1.5×)`);
+  const ownParse = stageMs.get("dxf-parser parse") ?? [];
+  const rest = extractMs.map((ms, k) => ms - (ownParse[k] ?? 0));
+  console.log(`whole path minus its own dxf-parser stage: ${median(rest).toFixed(0)} ms median = ${(median(rest) / p).toFixed(2)}× the bare parse (at most 0.5× would meet the target)`);
+  console.log(`garbage-collector pauses per run (median): bare parse ${median(parseSpans.map(gcIn)).toFixed(1)} ms, whole extract path ${median(extractSpans.map(gcIn)).toFixed(1)} ms`);
+  console.log(`load average (1, 5, 15 min): ${os.loadavg().map((l) => l.toFixed(2)).join(", ")} on ${os.cpus().length} cores`);
   console.log("stages (median ms):");
   for (const [stage, ms] of stageMs) console.log(`  ${median(ms).toFixed(1).padStart(7)}  ${stage}`);
   console.log(`heap retained by the network: ${retainedMiB.toFixed(1)} MiB = ${(retainedMiB / fileMiB).toFixed(1)}× the file`);
