@@ -347,12 +347,8 @@ function pushPath(ctx: Ctx, layer: string, type: string, handle: string | null, 
   ctx.out.push({ kind: "path", layer, type, handle, pieces: t.pieces, closed, minCurveRadius: radius });
 }
 
-/** Expand entities into ctx.out; with `release`, each raw entity is dropped from `entities` once read (the parsed file is not kept). */
-function walk(ctx: Ctx, entities: (IEntity | undefined)[], m: Affine, parentLayer: string | null, depth: number, stack: string[], release = false) {
-  for (let k = 0; k < entities.length; k++) {
-    const raw = entities[k] as IEntity;
-    // The parse output is about 17× the file; letting each raw entity go as it is read keeps both forms from piling up.
-    if (release) entities[k] = undefined;
+function walk(ctx: Ctx, entities: IEntity[], m: Affine, parentLayer: string | null, depth: number, stack: string[]) {
+  for (const raw of entities) {
     const e = raw as AnyEntity;
     if (e.inPaperSpace) continue;
     const type = String(e.type ?? "UNKNOWN");
@@ -568,8 +564,7 @@ export function readDxf(input: string | Uint8Array, options: ReadDxfOptions): Dx
   const modelBlock = Object.entries(ctx.blocks).find(([name]) => name.toLowerCase() === "*model_space")?.[1];
   const top = dxf.entities && dxf.entities.length > 0 ? dxf.entities : (modelBlock?.entities ?? []);
   try {
-    // Top-level ENTITIES are read once, so they can be let go; block entities may be inserted again.
-    walk(ctx, top, IDENTITY, null, 0, [], top === dxf.entities);
+    walk(ctx, top, IDENTITY, null, 0, []);
   } catch (e) {
     if (e instanceof LayoutError) throw e;
     // A shape the parser accepted but no entity reader expects: the file is damaged, not the reader.
