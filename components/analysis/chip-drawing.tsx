@@ -67,6 +67,9 @@ export function ChipDrawing(props: ChipDrawingProps) {
   const useCanvas = analysis.segments.length > threshold;
   const hostRef = useRef<HTMLDivElement>(null);
   const canvasRef = useRef<HTMLCanvasElement>(null);
+  // Outline layouts: show the mask shapes as read, with the extracted centrelines over them.
+  const hasMask = (analysis.mask_m?.length ?? 0) > 0;
+  const [showMask, setShowMask] = useState(true);
   const zoomRef = useRef<ZoomBehavior<HTMLDivElement, unknown> | null>(null);
   const [size, setSize] = useState<{ w: number; h: number } | null>(null);
   const [t, setT] = useState<ZoomTransform>(zoomIdentity);
@@ -256,6 +259,23 @@ export function ChipDrawing(props: ChipDrawingProps) {
                       style={{ mixBlendMode: "multiply" }}
                     />
                   ))}
+              {hasMask && showMask && (
+                <g data-testid="mask-overlay" pointerEvents="none">
+                  {analysis.mask_m!.map((m) => (
+                    <path
+                      key={`mask-${m.layer}`}
+                      d={m.rings.map((ring) => pathData(ring) + "Z").join(" ")}
+                      fill="none"
+                      stroke="#1c2b3d"
+                      strokeWidth={1 * px}
+                      strokeDasharray={`${4 * px} ${3 * px}`}
+                    />
+                  ))}
+                  {analysis.segments.map((seg) => (
+                    <path key={`cl-${seg.id}`} d={pathData(seg.path_m)} fill="none" stroke="#ffffff" strokeWidth={1.2 * px} strokeLinecap="round" />
+                  ))}
+                </g>
+              )}
               {analysis.ports.map((p) => {
                 const [x, y] = toDrawing(p.x_m, p.y_m);
                 return <circle key={p.name} cx={x} cy={y} r={Math.max(p.radius_m * UM_PER_M, 4 * px)} fill="#e3e9f0" stroke="#293d54" strokeWidth={1.5 * px} />;
@@ -304,17 +324,23 @@ export function ChipDrawing(props: ChipDrawingProps) {
         <DrawingButton label="Fit the chip in view" onClick={fit}>
           <svg width="14" height="14" viewBox="0 0 14 14" aria-hidden="true"><path d="M1 5V1h4M9 1h4v4M13 9v4H9M5 13H1V9" fill="none" stroke="currentColor" strokeWidth="1.6" /></svg>
         </DrawingButton>
+        {hasMask && (
+          <DrawingButton label={showMask ? "Hide the mask outline and extracted centrelines" : "Show the mask outline and extracted centrelines"} onClick={() => setShowMask((v) => !v)} pressed={showMask}>
+            <svg width="14" height="14" viewBox="0 0 14 14" aria-hidden="true"><rect x="1.5" y="4" width="11" height="6" fill="none" stroke="currentColor" strokeWidth="1.2" strokeDasharray="2 1.5" /><path d="M1 7h12" stroke="currentColor" strokeWidth="1.2" /></svg>
+          </DrawingButton>
+        )}
       </div>
       {props.children}
     </div>
   );
 }
 
-function DrawingButton({ label, onClick, children }: { label: string; onClick: () => void; children: ReactNode }) {
+function DrawingButton({ label, onClick, children, pressed }: { label: string; onClick: () => void; children: ReactNode; pressed?: boolean }) {
   return (
     <button
       type="button"
       aria-label={label}
+      aria-pressed={pressed}
       title={label}
       onClick={onClick}
       className="flex h-8 w-8 items-center justify-center rounded border border-ink-300 bg-white text-base font-semibold text-ink-800 shadow-sm hover:bg-ink-100 focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-stream-600"

@@ -69,6 +69,8 @@ export interface AnalyzeJson {
   warnings: { code: string; message: string; at?: { x_m: number; y_m: number } }[];
   layers: { name: string; role: string; entities: number; by_type: Record<string, number>; style?: string; proposed_role?: string }[];
   outline_m: [number, number][][];
+  /** Channel layers drawn as filled mask shapes (outline layouts): the shapes' rings, metres. */
+  mask_m?: { layer: string; rings: [number, number][][] }[];
   bounds_m: { min_x: number; min_y: number; max_x: number; max_y: number };
   fluid: null | {
     name: string;
@@ -180,6 +182,7 @@ export function toAnalyzeJson(network: ChannelNetwork, hydraulics: HydraulicsRes
       ...(l.proposedRole ? { proposed_role: l.proposedRole } : {}),
     })),
     outline_m: network.outline,
+    ...(network.masks ? { mask_m: network.masks.map((m) => ({ layer: m.layer, rings: m.ringsM })) } : {}),
     bounds_m: { min_x: network.bounds.minXM, min_y: network.bounds.minYM, max_x: network.bounds.maxXM, max_y: network.bounds.maxYM },
     fluid: hydraulics
       ? {

@@ -437,6 +437,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     }
   });
   flushLines();
+  const masks: NonNullable<ChannelNetwork["masks"]> = [];
   for (const l of plan.summaries) {
     if (l.role !== "channel") continue;
     const shapes = shapesByLayer.get(l.name)?.length ?? 0;
@@ -448,6 +449,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       const list = shapesByLayer.get(l.name)!;
       const src = drawing.entities.indexOf(list[0]);
       const read = readOutlineLayer(list);
+      masks.push({ layer: l.name, ringsM: read.rings.map((ring) => ring.map(([x, y]) => [x * mpu, y * mpu] as [number, number])) });
       read.pieces.forEach((p, k) => works.push({ p, len: pieceLength(p), layer, src, curveR: read.curveRadii[k] }));
       const um = (u: number) => fmt(u * mpu * 1e6);
       const ax = read.axis;
@@ -778,6 +780,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     outline,
     bounds,
     mappingProposed: plan.mappingProposed,
+    ...(masks.length > 0 ? { masks } : {}),
   };
 }
 

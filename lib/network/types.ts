@@ -101,4 +101,6 @@ export interface ChannelNetwork {
   bounds: { minXM: number; minYM: number; maxXM: number; maxYM: number };
   /** True when the conditions named no layer and the reader proposed the mapping itself. */
   mappingProposed: boolean;
+  /** Channel layers drawn as filled mask shapes: their rings in metres, so a drawing can show the extracted centrelines over them. */
+  masks?: { layer: string; ringsM: [number, number][][] }[];
 }

@@ -184,6 +184,23 @@ describe("same chip as centrelines and as outlines through analyzeLayout", () =>
   }
 });
 
+describe("the mask shapes travel with the result, for the drawing's overlay", () => {
+  it("a straight outline carries its one ring in metres; a centreline layout carries none", () => {
+    const water25 = { preset: "water", temperature: "25 degC" };
+    const ports = { IN: { flow: "10 uL/min" }, OUT: { pressure: "0 Pa" } };
+    const mask = analyzeLayout(readFileSync(new URL(outlines["straight-r2000-outline"].file, outDir)), { ...outlines["straight-r2000-outline"].conditions, fluid: water25, ports });
+    expect(mask.mask_m).toHaveLength(1);
+    expect(mask.mask_m![0].layer).toBe("FLOW");
+    expect(mask.mask_m![0].rings).toHaveLength(1);
+    // Shapely's flat-capped buffer of the 9 mm × 100 µm channel (tests/fixtures/outlines/generate.py): every
+    // ring point lies within the channel's bounds, and the ring spans the channel's width.
+    const ys = mask.mask_m![0].rings[0].map(([, y]) => y);
+    expect(Math.max(...ys) - Math.min(...ys)).toBeCloseTo(100e-6, 9);
+    const line = analyzeLayout(readFileSync(new URL(originals["straight-r2000"].file, lineDir)), { ...originals["straight-r2000"].conditions, fluid: water25, ports });
+    expect(line.mask_m).toBeUndefined();
+  });
+});
+
 describe("bad outline input", () => {
   it("an outline layer without depth names the layer and what to add", () => {
     const f = outlines["straight-r2000-outline"];
