@@ -1,6 +1,7 @@
 "use client";
 
 import { useState } from "react";
+import { formatWhen } from "@/components/chips/format";
 
 export type ShareLinkItem = {
   id: number;
@@ -14,7 +15,6 @@ export type ShareLinkItem = {
 };
 
 const STATUS_WORDS: Record<ShareLinkItem["status"], string> = { active: "Active", expired: "Expired", revoked: "Revoked" };
-const when = (iso: string) => `${iso.slice(0, 16).replace("T", " ")} UTC`;
 
 async function readError(res: Response): Promise<string> {
   try {
@@ -122,10 +122,10 @@ export function ShareLinksPanel({ revisionId, initial, maxDays, defaultDays }: {
                   <span className="font-mono text-xs">{l.prefix}…</span> {l.label ? <span className="text-ink-700">{l.label}</span> : null}
                 </td>
                 <td className="py-1.5 pr-3 text-ink-700">
-                  {when(l.created_at)}
+                  {formatWhen(l.created_at)}
                   {l.created_by ? ` by ${l.created_by}` : ""}
                 </td>
-                <td className="py-1.5 pr-3 text-ink-700">{when(l.expires_at)}</td>
+                <td className="py-1.5 pr-3 text-ink-700">{formatWhen(l.expires_at)}</td>
                 <td className="py-1.5 pr-3">{STATUS_WORDS[l.status]}</td>
                 <td className="py-1.5 text-right">
                   {l.status === "active" ? (

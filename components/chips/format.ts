@@ -7,10 +7,10 @@ export function formatBytes(bytes: number): string {
   return `${bytes} B`;
 }
 
-/** A date and time in UTC, unambiguous for a team across time zones: "2026-12-01 14:05 UTC". */
-export function formatWhen(value: string | Date): string {
+/** A date and time in UTC, unambiguous for a team across time zones: "2026-12-01 14:05 UTC" (with seconds for audit trails). */
+export function formatWhen(value: string | Date, options: { seconds?: boolean } = {}): string {
   const d = typeof value === "string" ? new Date(value) : value;
-  return `${d.toISOString().slice(0, 16).replace("T", " ")} UTC`;
+  return `${d.toISOString().slice(0, options.seconds ? 19 : 16).replace("T", " ")} UTC`;
 }
 
 /** First 12 hex digits of a SHA-256, enough to tell files apart at a glance. */

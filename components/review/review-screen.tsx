@@ -6,6 +6,7 @@
  * server actions; the server decides (roles, four-eyes, state, version).
  */
 import { useId, useMemo, useState } from "react";
+import { formatWhen } from "@/components/chips/format";
 import {
   commentAction,
   disposeFlagAction,
@@ -71,7 +72,6 @@ function Hidden({ where, extra = {} }: { where: ReviewWhere; extra?: Record<stri
 }
 
 const fmt = (v: number | null) => (v === null ? "—" : Math.abs(v) >= 1e4 || (Math.abs(v) < 1e-2 && v !== 0) ? v.toExponential(3) : v.toPrecision(4));
-const when = (iso: string) => `${iso.slice(0, 16).replace("T", " ")} UTC`;
 
 function DispositionForm({ flag, where, version }: { flag: ReviewFlagItem; where: ReviewWhere; version: number }) {
   const id = useId();
@@ -144,7 +144,7 @@ function FlagRow({ flag, where, version, canDispose, selected, onSelect }: { fla
       </div>
       {flag.decision ? (
         <p className="mt-2 rounded bg-ink-50 px-2 py-1 text-xs text-ink-800">
-          {flag.decision === "waived" ? "Waived" : "Marked must-fix"} by {flag.decidedBy ?? "?"} {flag.decidedAt ? `on ${when(flag.decidedAt)}` : ""}
+          {flag.decision === "waived" ? "Waived" : "Marked must-fix"} by {flag.decidedBy ?? "?"} {flag.decidedAt ? `on ${formatWhen(flag.decidedAt)}` : ""}
           {flag.justification ? <>: “{flag.justification}”</> : null}
         </p>
       ) : null}
@@ -233,7 +233,7 @@ function Comments({ where, comments, canComment, selectedId, onSelect }: { where
           <li key={t.id} className={`rounded-md border p-3 ${t.segmentId && t.segmentId === selectedId ? "border-stream-600" : "border-ink-200"} ${t.resolved ? "bg-ink-50" : "bg-white"}`} data-testid="review-comment">
             <div className="flex flex-wrap items-baseline justify-between gap-2 text-xs text-ink-600">
               <span>
-                <span className="font-semibold text-ink-900">{t.author}</span> · {when(t.createdAt)}
+                <span className="font-semibold text-ink-900">{t.author}</span> · {formatWhen(t.createdAt)}
                 {t.segmentId ? (
                   <>
                     {" "}
@@ -254,7 +254,7 @@ function Comments({ where, comments, canComment, selectedId, onSelect }: { where
                 {replies(t.id).map((r) => (
                   <li key={r.id} className="text-sm">
                     <p className="text-xs text-ink-600">
-                      <span className="font-semibold text-ink-900">{r.author}</span> · {when(r.createdAt)}
+                      <span className="font-semibold text-ink-900">{r.author}</span> · {formatWhen(r.createdAt)}
                     </p>
                     <p className="whitespace-pre-wrap text-ink-900">{r.body}</p>
                   </li>

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { formatWhen } from "@/components/chips/format";
 import Link from "next/link";
 import { MarkReadButton } from "@/components/review/inbox-forms";
 import { AccessDenied } from "@/components/ui/access-denied";
@@ -10,7 +11,6 @@ import { listInbox } from "@/lib/notifications/service";
 
 export const metadata: Metadata = { title: "Inbox" };
 
-const when = (d: Date) => `${d.toISOString().slice(0, 16).replace("T", " ")} UTC`;
 
 export default async function InboxPage({ params }: { params: Promise<{ workspace: string }> }) {
   const { workspace: slug } = await params;
@@ -50,7 +50,7 @@ export default async function InboxPage({ params }: { params: Promise<{ workspac
                     n.summary
                   )}
                 </p>
-                <p className="text-xs text-ink-600">{when(n.createdAt)}</p>
+                <p className="text-xs text-ink-600">{formatWhen(n.createdAt)}</p>
               </div>
               {n.readAt ? null : <MarkReadButton slug={slug} id={n.id} label="Mark read" />}
             </li>

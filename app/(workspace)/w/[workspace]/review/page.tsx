@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import { formatWhen } from "@/components/chips/format";
 import Link from "next/link";
 import { ReviewStatusBadge } from "@/components/review/status-badge";
 import { AccessDenied } from "@/components/ui/access-denied";
@@ -12,7 +13,6 @@ export const metadata: Metadata = { title: "Review queue" };
 
 type Section = { key: string; title: string; explain: string; items: QueueItem[] };
 
-const when = (d: Date) => `${d.toISOString().slice(0, 16).replace("T", " ")} UTC`;
 
 export default async function ReviewQueuePage({ params }: { params: Promise<{ workspace: string }> }) {
   const { workspace: slug } = await params;
@@ -100,7 +100,7 @@ export default async function ReviewQueuePage({ params }: { params: Promise<{ wo
                           <ReviewStatusBadge status={r.state} />
                         </td>
                         <td className="px-3 py-2 text-ink-800">{r.uploaderName ?? "Former member"}</td>
-                        <td className="px-3 py-2 text-ink-700">{when(r.since)}</td>
+                        <td className="px-3 py-2 text-ink-700">{formatWhen(r.since)}</td>
                         <td className="px-3 py-2 text-right font-mono text-ink-900">{formatWaited(r.since.getTime(), now)}</td>
                       </tr>
                     ))}

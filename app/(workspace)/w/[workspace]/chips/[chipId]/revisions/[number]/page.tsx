@@ -1,6 +1,5 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { notFound } from "next/navigation";
 import { analysisHref, formatBytes, formatWhen, revisionHref, shortSha } from "@/components/chips/format";
 import { OperatingPointForm, type Choice } from "@/components/chips/operating-point-form";
 import { ReviewStateBadge } from "@/components/chips/review-state";
@@ -9,8 +8,8 @@ import { AccessDenied } from "@/components/ui/access-denied";
 import { EmptyState } from "@/components/ui/empty-state";
 import { Notice } from "@/components/ui/notice";
 import { PageHeader } from "@/components/ui/page-header";
-import { getChip, getLatestOperatingPointForm, getLayerMap, getRevision, listAnalyses } from "@/db/queries/chips";
-import { getPageAccess } from "@/lib/auth/page";
+import { getLatestOperatingPointForm, getLayerMap, listAnalyses } from "@/db/queries/chips";
+import { loadRevisionPage } from "@/lib/chips/page";
 import { can } from "@/lib/auth/permissions";
 import { fluidChoiceValue } from "@/lib/chips/conditions";
 import type { LayerMapInput, OperatingPointForm as FormValues } from "@/lib/chips/schemas";
@@ -46,16 +45,10 @@ export default async function RevisionPage({
   params: Promise<{ workspace: string; chipId: string; number: string }>;
   searchParams: Promise<{ mapped?: string }>;
 }) {
-  const { workspace: slug, chipId: rawId, number: rawNo } = await params;
+  const page = await loadRevisionPage(await params, "chip.view");
   const { mapped: justMapped } = await searchParams;
-  const access = await getPageAccess(slug, "chip.view", `/w/${slug}/chips/${rawId}/revisions/${rawNo}`);
-  if (!access.ok) return <AccessDenied message={access.message} />;
-  const chipId = Number(rawId);
-  const number = Number(rawNo);
-  if (!Number.isInteger(chipId) || !Number.isInteger(number)) notFound();
-  const chip = await getChip(access.scope, chipId);
-  const revision = chip ? await getRevision(access.scope, chip.id, number) : null;
-  if (!chip || !revision) notFound();
+  if (!page.ok) return <AccessDenied message={page.message} />;
+  const { access, slug, chip, revision, number } = page;
   const href = revisionHref(slug, chip.id, number);
   const mapping = (await getLayerMap(access.scope, revision.id)) as LayerMapInput | null;
   const analyses = await listAnalyses(access.scope, revision.id);

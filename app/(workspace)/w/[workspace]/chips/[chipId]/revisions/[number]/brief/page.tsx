@@ -1,12 +1,10 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { notFound } from "next/navigation";
 import { BriefView } from "@/components/brief/brief-view";
 import { PrintButton } from "@/components/brief/print-button";
 import { ShareLinksPanel } from "@/components/brief/share-links-panel";
 import { AccessDenied } from "@/components/ui/access-denied";
-import { getChip, getRevision } from "@/db/queries/chips";
-import { getPageAccess } from "@/lib/auth/page";
+import { loadRevisionPage } from "@/lib/chips/page";
 import { can } from "@/lib/auth/permissions";
 import { loadBrief } from "@/lib/reports/load";
 import { DEFAULT_SHARE_DAYS, listRevisionShareLinks, MAX_SHARE_DAYS } from "@/lib/reports/share";
@@ -14,15 +12,9 @@ import { DEFAULT_SHARE_DAYS, listRevisionShareLinks, MAX_SHARE_DAYS } from "@/li
 export const metadata: Metadata = { title: "Brief" };
 
 export default async function BriefPage({ params }: { params: Promise<{ workspace: string; chipId: string; number: string }> }) {
-  const { workspace: slug, chipId: rawChip, number: rawNumber } = await params;
-  const access = await getPageAccess(slug, "report.view", `/w/${slug}/chips/${rawChip}/revisions/${rawNumber}/brief`);
-  if (!access.ok) return <AccessDenied message={access.message} />;
-  const chipId = Number(rawChip);
-  const number = Number(rawNumber);
-  if (!Number.isInteger(chipId) || chipId <= 0 || !Number.isInteger(number) || number <= 0) notFound();
-  const chip = await getChip(access.scope, chipId);
-  const revision = chip ? await getRevision(access.scope, chip.id, number) : null;
-  if (!chip || !revision) notFound();
+  const page = await loadRevisionPage(await params, "report.view", "/brief");
+  if (!page.ok) return <AccessDenied message={page.message} />;
+  const { access, slug, chip, revision } = page;
   const brief = await loadBrief(access.scope, access.workspace.name, revision.id);
   const canShare = can(access.scope, "report.share");
   const links = canShare ? await listRevisionShareLinks(access, revision.id) : [];

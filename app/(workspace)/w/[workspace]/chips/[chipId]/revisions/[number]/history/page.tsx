@@ -1,30 +1,23 @@
 import type { Metadata } from "next";
+import { formatWhen } from "@/components/chips/format";
 import Link from "next/link";
-import { notFound } from "next/navigation";
 import { ReviewStatusBadge } from "@/components/review/status-badge";
 import { AccessDenied } from "@/components/ui/access-denied";
 import { PageHeader } from "@/components/ui/page-header";
-import { getChip, getRevision } from "@/db/queries/chips";
-import { getPageAccess } from "@/lib/auth/page";
+import { loadRevisionPage } from "@/lib/chips/page";
 import { describeAuditEvent } from "@/lib/review/describe";
 import { listRevisionAudit } from "@/lib/review/service";
 
 export const metadata: Metadata = { title: "Revision history" };
 
-const when = (d: Date) => `${d.toISOString().slice(0, 19).replace("T", " ")} UTC`;
+const when = (d: Date) => formatWhen(d, { seconds: true });
 
 export default async function RevisionHistoryPage({ params }: { params: Promise<{ workspace: string; chipId: string; number: string }> }) {
-  const { workspace: slug, chipId: rawId, number: rawNo } = await params;
-  const access = await getPageAccess(slug, "chip.view", `/w/${slug}/chips/${rawId}/revisions/${rawNo}/history`);
-  if (!access.ok) return <AccessDenied message={access.message} />;
-  const chipId = Number(rawId);
-  const number = Number(rawNo);
-  if (!Number.isInteger(chipId) || chipId <= 0 || !Number.isInteger(number) || number <= 0) notFound();
-  const chip = await getChip(access.scope, chipId);
-  const revision = chip ? await getRevision(access.scope, chip.id, number) : null;
-  if (!chip || !revision) notFound();
+  const page = await loadRevisionPage(await params, "chip.view", "/history");
+  if (!page.ok) return <AccessDenied message={page.message} />;
+  const { access, slug, chip, revision, number } = page;
   const events = await listRevisionAudit(access, revision.id);
-  const base = `/w/${slug}/chips/${chip.id}/revisions/${number}`;
+  const { base } = page;
   const api = `/api/v1/revisions/${revision.id}/audit`;
   return (
     <>

@@ -1,13 +1,13 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
+import { redirect } from "next/navigation";
 import { revisionHref } from "@/components/chips/format";
 import { LayerMapForm, type MappingLayer } from "@/components/chips/layer-map-form";
 import { AccessDenied } from "@/components/ui/access-denied";
 import { Notice } from "@/components/ui/notice";
 import { PageHeader } from "@/components/ui/page-header";
-import { getChip, getLatestLayerMapForChip, getLayerMap, getRevision } from "@/db/queries/chips";
-import { getPageAccess } from "@/lib/auth/page";
+import { getLatestLayerMapForChip, getLayerMap } from "@/db/queries/chips";
+import { loadRevisionPage } from "@/lib/chips/page";
 import { previewLayers, type LayoutPreview } from "@/lib/chips/preview";
 import type { LayerMapInput } from "@/lib/chips/schemas";
 import { readRevisionFile } from "@/lib/chips/service";
@@ -17,15 +17,9 @@ import { surveyLayout } from "@/lib/network/survey";
 export const metadata: Metadata = { title: "Map layers" };
 
 export default async function LayersPage({ params }: { params: Promise<{ workspace: string; chipId: string; number: string }> }) {
-  const { workspace: slug, chipId: rawId, number: rawNo } = await params;
-  const access = await getPageAccess(slug, "revision.upload", `/w/${slug}/chips/${rawId}/revisions/${rawNo}/layers`);
-  if (!access.ok) return <AccessDenied message={access.message} homeHref={`/w/${slug}/chips`} />;
-  const chipId = Number(rawId);
-  const number = Number(rawNo);
-  if (!Number.isInteger(chipId) || !Number.isInteger(number)) notFound();
-  const chip = await getChip(access.scope, chipId);
-  const revision = chip ? await getRevision(access.scope, chip.id, number) : null;
-  if (!chip || !revision) notFound();
+  const page = await loadRevisionPage(await params, "revision.upload", "/layers");
+  if (!page.ok) return <AccessDenied message={page.message} homeHref={`/w/${page.slug}/chips`} />;
+  const { access, slug, chip, revision, number } = page;
   const href = revisionHref(slug, chip.id, number);
   if (await getLayerMap(access.scope, revision.id)) redirect(href);
 

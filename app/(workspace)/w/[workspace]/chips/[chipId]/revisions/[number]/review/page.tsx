@@ -1,16 +1,16 @@
 import type { Metadata } from "next";
+import { formatWhen } from "@/components/chips/format";
 import Link from "next/link";
-import { notFound } from "next/navigation";
 import { ReviewScreen, type ReviewCommentItem, type ReviewFlagItem } from "@/components/review/review-screen";
 import { ReviewStatusBadge } from "@/components/review/status-badge";
 import { StepPanel } from "@/components/review/step-panel";
 import { AccessDenied } from "@/components/ui/access-denied";
 import { Notice } from "@/components/ui/notice";
 import { PageHeader } from "@/components/ui/page-header";
-import { getAnalysis, getChip, getRevision } from "@/db/queries/chips";
+import { getAnalysis } from "@/db/queries/chips";
 import { listAuditEvents } from "@/db/queries/audit";
 import { MODEL_CAUTIONS } from "@/lib/analysis/cautions";
-import { getPageAccess } from "@/lib/auth/page";
+import { loadRevisionPage } from "@/lib/chips/page";
 import { listProcesses } from "@/lib/rules";
 import { can } from "@/lib/auth/permissions";
 import { describeAuditEvent, describeFlagKey, formatWaited } from "@/lib/review/describe";
@@ -18,21 +18,14 @@ import { getReviewOverview } from "@/lib/review/service";
 
 export const metadata: Metadata = { title: "Review" };
 
-const when = (d: Date) => `${d.toISOString().slice(0, 16).replace("T", " ")} UTC`;
 
 export default async function ReviewPage({ params }: { params: Promise<{ workspace: string; chipId: string; number: string }> }) {
-  const { workspace: slug, chipId: rawId, number: rawNo } = await params;
-  const access = await getPageAccess(slug, "chip.view", `/w/${slug}/chips/${rawId}/revisions/${rawNo}/review`);
-  if (!access.ok) return <AccessDenied message={access.message} />;
-  const chipId = Number(rawId);
-  const number = Number(rawNo);
-  if (!Number.isInteger(chipId) || chipId <= 0 || !Number.isInteger(number) || number <= 0) notFound();
-  const chip = await getChip(access.scope, chipId);
-  const revision = chip ? await getRevision(access.scope, chip.id, number) : null;
-  if (!chip || !revision) notFound();
+  const page = await loadRevisionPage(await params, "chip.view", "/review");
+  if (!page.ok) return <AccessDenied message={page.message} />;
+  const { access, slug, chip, revision, number } = page;
 
   const o = await getReviewOverview(access, revision.id);
-  const base = `/w/${slug}/chips/${chip.id}/revisions/${number}`;
+  const { base } = page;
   const doc = o.analysisDoc;
   const latestAnalysisId = o.candidates[0]?.id ?? null;
   const shownAnalysisId = o.revision.reviewAnalysisId ?? latestAnalysisId;
@@ -115,7 +108,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ workspa
           <span className="inline-flex flex-wrap items-center gap-2">
             <ReviewStatusBadge status={o.state.status} />
             <span className="text-sm text-ink-600">
-              since {when(o.revision.reviewStateSince)} ({waited}) · file {o.revision.fileName} · SHA-256 <span className="font-mono">{o.revision.sha256.slice(0, 12)}…</span>
+              since {formatWhen(o.revision.reviewStateSince)} ({waited}) · file {o.revision.fileName} · SHA-256 <span className="font-mono">{o.revision.sha256.slice(0, 12)}…</span>
             </span>
           </span>
         }
@@ -135,7 +128,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ workspa
       {o.state.status === "cleared" && o.clearance ? (
         <div className="mb-4">
           <Notice tone="success" title="Cleared for tape-out — this revision is frozen">
-            Signed by {o.clearance.byName ?? "?"} on {when(o.clearance.at)} for {o.clearance.fabName}, process {o.clearance.process}; file SHA-256{" "}
+            Signed by {o.clearance.byName ?? "?"} on {formatWhen(o.clearance.at)} for {o.clearance.fabName}, process {o.clearance.process}; file SHA-256{" "}
             <span className="font-mono break-all">{o.clearance.fileSha256}</span>, analysis {o.clearance.analysisId}. A changed layout becomes a new revision; this clearance stays on
             record.
           </Notice>
@@ -181,7 +174,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ workspa
               {events.map((e) => (
                 <li key={e.id} className="border-l-2 border-ink-200 pl-2">
                   <p className="text-xs text-ink-600">
-                    {when(e.at)} · <span className="font-semibold text-ink-800">{e.actor ?? "system"}</span>
+                    {formatWhen(e.at)} · <span className="font-semibold text-ink-800">{e.actor ?? "system"}</span>
                   </p>
                   <p className="text-ink-900">{describeAuditEvent(e.action, e.details)}</p>
                 </li>

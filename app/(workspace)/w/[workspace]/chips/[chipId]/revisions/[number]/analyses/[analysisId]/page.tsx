@@ -7,12 +7,12 @@ import { ReviewStateBadge } from "@/components/chips/review-state";
 import { AccessDenied } from "@/components/ui/access-denied";
 import { Notice } from "@/components/ui/notice";
 import { PageHeader } from "@/components/ui/page-header";
-import { getAnalysis, getChip, getLatestAnalysisIdForRevision, getRevision, getRevisionById, getUserUnitPreferences, listAnalyses } from "@/db/queries/chips";
+import { getAnalysis, getLatestAnalysisIdForRevision, getRevisionById, getUserUnitPreferences, listAnalyses } from "@/db/queries/chips";
 import { MODEL_CAUTIONS } from "@/lib/analysis/cautions";
 import type { Conditions } from "@/lib/analysis/conditions";
 import { unitPreferencesSchema } from "@/lib/analysis/unit-preferences";
 import type { AnalyzeJson } from "@/lib/analysis/serialize";
-import { getPageAccess } from "@/lib/auth/page";
+import { loadRevisionPage, requireIdSegment } from "@/lib/chips/page";
 import { adviceForFailure } from "@/lib/chips/service";
 import { PROCESS_PROFILES } from "@/lib/rules";
 import { parseQuantity } from "@/lib/units/quantity";
@@ -43,16 +43,13 @@ export default async function AnalysisPage({
   params: Promise<{ workspace: string; chipId: string; number: string; analysisId: string }>;
   searchParams: Promise<{ compare?: string }>;
 }) {
-  const { workspace: slug, chipId: rawId, number: rawNo, analysisId: rawAnalysis } = await params;
+  const route = await params;
   const { compare } = await searchParams;
-  const access = await getPageAccess(slug, "chip.view", `/w/${slug}/chips/${rawId}/revisions/${rawNo}/analyses/${rawAnalysis}`);
-  if (!access.ok) return <AccessDenied message={access.message} />;
-  const [chipId, number, analysisId] = [Number(rawId), Number(rawNo), Number(rawAnalysis)];
-  if (![chipId, number, analysisId].every((n) => Number.isInteger(n) && n > 0)) notFound();
-  const chip = await getChip(access.scope, chipId);
-  const revision = chip ? await getRevision(access.scope, chip.id, number) : null;
-  const analysis = await getAnalysis(access.scope, analysisId);
-  if (!chip || !revision || !analysis || analysis.revisionId !== revision.id) notFound();
+  const page = await loadRevisionPage(route, "chip.view", `/analyses/${route.analysisId}`);
+  if (!page.ok) return <AccessDenied message={page.message} />;
+  const { access, slug, chip, revision, number } = page;
+  const analysis = await getAnalysis(access.scope, requireIdSegment(route.analysisId));
+  if (!analysis || analysis.revisionId !== revision.id) notFound();
   const here = analysisHref(slug, chip.id, number, analysis.id);
 
   const header = (
