@@ -8,6 +8,7 @@ import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
 import { BASE_URL, DEMO_PASSWORD, launch, signIn, snap } from "./support";
+import { TEE_LAYERS as LAYERS, teeForm as form, BOND_FLAG as BOND, PUMP_FLAG as PUMP } from "@/tests/support/tee-fixture";
 
 let browser: Browser;
 const contexts: BrowserContext[] = [];
@@ -29,22 +30,6 @@ async function as(email: string): Promise<Page> {
   return page;
 }
 
-const LAYERS = { FLOW: { role: "channel", depth: "50 um", width: "100 um" }, PORTS: { role: "port" }, DIE: { role: "outline" }, TEXT: { role: "ignore" } };
-const form = (name: string, flow: string) => ({
-  name,
-  fluid: "preset:water",
-  temperature: "25 degC",
-  process: "pdms_soft_lithography",
-  pumpMaxPressure: "2 bar",
-  ports: [
-    { name: "A", drive: "flow", value: flow },
-    { name: "B", drive: "pressure", value: "0 mbar" },
-    { name: "C", drive: "pressure", value: "0 mbar" },
-  ],
-});
-// At 2000 µL/min the tee's inlet pressure (~290 kPa) exceeds the 2 bar pump limit and the PDMS bond strength: two blocking flags.
-const PUMP = "pump_pressure_max|port|A";
-const BOND = "pressure_bond|port|A";
 
 async function statusOf(page: Page): Promise<string | null> {
   return page.getByTestId("review-status").first().getAttribute("data-status");

@@ -36,6 +36,7 @@ import { call } from "@/tests/support/requests";
 import { dropTempDatabase, useTempDatabase } from "@/tests/support/temp-db";
 import { fixtureBytes, send, uploadRequest } from "@/tests/support/uploads";
 import { looksLikePdf, pdfText } from "@/tests/lib/reports/pdf-text";
+import { TEE, TEE_LAYERS as LAYERS, teeForm as form, BOND_FLAG as BOND, PUMP_FLAG as PUMP } from "@/tests/support/tee-fixture";
 
 let demo: DemoContext;
 let storageDir: string;
@@ -47,23 +48,6 @@ const LEAD = "lead@brookmere.test";
 const ADMIN = "admin@brookmere.test";
 const OTHER_ADMIN = "admin@halvard.test";
 
-const TEE = "tee-um-r2000.dxf";
-const LAYERS = { FLOW: { role: "channel", depth: "50 um", width: "100 um" }, PORTS: { role: "port" }, DIE: { role: "outline" }, TEXT: { role: "ignore" } };
-/** As in tests/app/api/review.test.ts: at 2000 µL/min into A the tee needs ~290 kPa, above the 2 bar pump and the PDMS bond: two block flags. */
-const form = (name: string, flow: string) => ({
-  name,
-  fluid: "preset:water",
-  temperature: "25 degC",
-  process: "pdms_soft_lithography",
-  pumpMaxPressure: "2 bar",
-  ports: [
-    { name: "A", drive: "flow", value: flow },
-    { name: "B", drive: "pressure", value: "0 mbar" },
-    { name: "C", drive: "pressure", value: "0 mbar" },
-  ],
-});
-const BOND = "pressure_bond|port|A";
-const PUMP = "pump_pressure_max|port|A";
 const WAIVER = "Bench runs use a 4 bar pressure controller behind a polycarbonate shield for this chip.";
 const BOND_WAIVER = "Chips for this run are bonded with the fab's reinforced clamp fixture rated to 5 bar.";
 

@@ -37,6 +37,7 @@ import { actAs } from "@/tests/support/fake-session";
 import { call } from "@/tests/support/requests";
 import { dropTempDatabase, useTempDatabase } from "@/tests/support/temp-db";
 import { fixtureBytes, send, uploadRequest } from "@/tests/support/uploads";
+import { TEE, TEE_LAYERS as LAYERS, teeForm as form, BOND_FLAG as BOND, PUMP_FLAG as PUMP } from "@/tests/support/tee-fixture";
 
 let demo: DemoContext;
 let storageDir: string;
@@ -48,23 +49,6 @@ const FAB = "fab@brookmere.test";
 const LEAD = "lead@brookmere.test";
 const ADMIN = "admin@brookmere.test";
 
-const TEE = "tee-um-r2000.dxf";
-const LAYERS = { FLOW: { role: "channel", depth: "50 um", width: "100 um" }, PORTS: { role: "port" }, DIE: { role: "outline" }, TEXT: { role: "ignore" } };
-/** At 2000 µL/min into A the tee's inlet pressure (~290 kPa) exceeds both the 2 bar pump limit and PDMS plasma-bond strength: two block flags. */
-const form = (name: string, flow: string) => ({
-  name,
-  fluid: "preset:water",
-  temperature: "25 degC",
-  process: "pdms_soft_lithography",
-  pumpMaxPressure: "2 bar",
-  ports: [
-    { name: "A", drive: "flow", value: flow },
-    { name: "B", drive: "pressure", value: "0 mbar" },
-    { name: "C", drive: "pressure", value: "0 mbar" },
-  ],
-});
-const BOND = "pressure_bond|port|A";
-const PUMP = "pump_pressure_max|port|A";
 const WAIVER = "The bench uses a 4 bar pressure controller for this run; the pump limit does not apply.";
 
 type Setup = { chipId: number; revisionId: number; params: { chipId: string; number: string }; analysisId: number; bytes: Uint8Array };
