@@ -8,11 +8,9 @@
  */
 import { index, integer, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
 import { users, workspaces } from "./schema";
+import { timestampNow } from "./columns";
 
-const createdAt = () =>
-  integer("created_at", { mode: "timestamp_ms" })
-    .notNull()
-    .$defaultFn(() => new Date());
+const createdAt = () => timestampNow("created_at");
 
 const workspaceRef = () =>
   integer("workspace_id")
@@ -29,9 +27,7 @@ export const chips = sqliteTable(
     createdByUserId: integer("created_by_user_id").references(() => users.id, { onDelete: "set null" }),
     createdAt: createdAt(),
     /** Last upload, analysis or review step on any revision: what the chip list sorts by. */
-    lastActivityAt: integer("last_activity_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    lastActivityAt: timestampNow("last_activity_at"),
   },
   (t) => [uniqueIndex("chips_workspace_name").on(t.workspaceId, t.name)],
 );
@@ -48,9 +44,7 @@ export const revisions = sqliteTable(
     number: integer("number").notNull(),
     parentRevisionId: integer("parent_revision_id"),
     uploadedByUserId: integer("uploaded_by_user_id").references(() => users.id, { onDelete: "set null" }),
-    uploadedAt: integer("uploaded_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    uploadedAt: timestampNow("uploaded_at"),
     fileName: text("file_name").notNull(),
     sizeBytes: integer("size_bytes").notNull(),
     sha256: text("sha256").notNull(),
@@ -62,9 +56,7 @@ export const revisions = sqliteTable(
     /** Review state (lib/review/machine) and its version for compare-and-set. */
     reviewState: text("review_state").notNull().default("draft"),
     reviewVersion: integer("review_version").notNull().default(0),
-    reviewStateSince: integer("review_state_since", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    reviewStateSince: timestampNow("review_state_since"),
     /** The operating point's analysis submitted for review (set on submit). */
     reviewAnalysisId: integer("review_analysis_id"),
   },
@@ -157,9 +149,7 @@ export const workspaceFluids = sqliteTable(
     /** {viscosity, density, surface_tension, diffusivity?} as quantities with units, plus {source} per value. */
     properties: text("properties", { mode: "json" }).$type<Record<string, unknown>>().notNull(),
     updatedByUserId: integer("updated_by_user_id").references(() => users.id, { onDelete: "set null" }),
-    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    updatedAt: timestampNow("updated_at"),
   },
   (t) => [uniqueIndex("workspace_fluids_key").on(t.workspaceId, t.key)],
 );
@@ -175,9 +165,7 @@ export const processOverrides = sqliteTable(
     values: text("values", { mode: "json" }).$type<Record<string, number>>().notNull(),
     note: text("note").notNull().default(""),
     updatedByUserId: integer("updated_by_user_id").references(() => users.id, { onDelete: "set null" }),
-    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    updatedAt: timestampNow("updated_at"),
   },
   (t) => [uniqueIndex("process_overrides_key").on(t.workspaceId, t.processKey)],
 );
@@ -193,9 +181,7 @@ export const thresholdOverrides = sqliteTable(
     value: real("value").notNull(),
     note: text("note").notNull().default(""),
     updatedByUserId: integer("updated_by_user_id").references(() => users.id, { onDelete: "set null" }),
-    updatedAt: integer("updated_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    updatedAt: timestampNow("updated_at"),
   },
   (t) => [uniqueIndex("threshold_overrides_code").on(t.workspaceId, t.ruleCode)],
 );

@@ -8,6 +8,7 @@
 import { index, integer, sqliteTable, text } from "drizzle-orm/sqlite-core";
 import { users, workspaces } from "./schema";
 import { revisions } from "./schema-chips";
+import { timestampNow } from "./columns";
 
 export const shareLinks = sqliteTable(
   "share_links",
@@ -26,9 +27,7 @@ export const shareLinks = sqliteTable(
     /** Who the link is for, in the creator's words ("Board pack, March"). */
     label: text("label").notNull().default(""),
     createdByUserId: integer("created_by_user_id").references(() => users.id, { onDelete: "set null" }),
-    createdAt: integer("created_at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    createdAt: timestampNow("created_at"),
     expiresAt: integer("expires_at", { mode: "timestamp_ms" }).notNull(),
     revokedAt: integer("revoked_at", { mode: "timestamp_ms" }),
     revokedByUserId: integer("revoked_by_user_id").references(() => users.id, { onDelete: "set null" }),

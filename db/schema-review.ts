@@ -13,11 +13,9 @@ import { check, index, integer, primaryKey, real, sqliteTable, text } from "driz
 import { users, workspaces } from "./schema";
 import { analyses, revisions } from "./schema-chips";
 import { NOTIFICATION_KINDS } from "@/lib/notifications/kinds";
+import { timestampNow } from "./columns";
 
-const at = (name: string) =>
-  integer(name, { mode: "timestamp_ms" })
-    .notNull()
-    .$defaultFn(() => new Date());
+const at = timestampNow;
 
 const workspaceRef = () =>
   integer("workspace_id")

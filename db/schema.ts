@@ -8,11 +8,9 @@
 import { sql } from "drizzle-orm";
 import { check, index, integer, primaryKey, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
 import { ROLES } from "@/lib/auth/roles";
+import { timestampNow } from "./columns";
 
-const createdAt = () =>
-  integer("created_at", { mode: "timestamp_ms" })
-    .notNull()
-    .$defaultFn(() => new Date());
+const createdAt = () => timestampNow("created_at");
 
 const roleList = ROLES.map((r) => `'${r}'`).join(", ");
 
@@ -115,9 +113,7 @@ export const auditEvents = sqliteTable(
     action: text("action").notNull(),
     objectType: text("object_type").notNull(),
     objectId: text("object_id").notNull(),
-    at: integer("at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    at: timestampNow("at"),
     details: text("details", { mode: "json" }).$type<Record<string, unknown>>().notNull().default({}),
   },
   (t) => [index("audit_events_workspace_at").on(t.workspaceId, t.at), index("audit_events_object").on(t.objectType, t.objectId)],
@@ -150,9 +146,7 @@ export const signInAttempts = sqliteTable(
     email: text("email").notNull(),
     clientAddress: text("client_address").notNull(),
     succeeded: integer("succeeded", { mode: "boolean" }).notNull(),
-    at: integer("at", { mode: "timestamp_ms" })
-      .notNull()
-      .$defaultFn(() => new Date()),
+    at: timestampNow("at"),
   },
   (t) => [index("sign_in_attempts_email_at").on(t.email, t.at), index("sign_in_attempts_address_at").on(t.clientAddress, t.at)],
 );
