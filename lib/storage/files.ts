@@ -14,13 +14,15 @@ export function sha256Hex(bytes: Uint8Array): string {
   return createHash("sha256").update(bytes).digest("hex");
 }
 
+// The storage folder is chosen at run time, so the build must not try to trace it into the bundle
+// (Next's file tracing would otherwise warn and trace the whole project).
 function storageRoot(): string {
-  return path.resolve(process.env.STORAGE_DIR || "data/files");
+  return path.resolve(/* turbopackIgnore: true */ process.env.STORAGE_DIR || "data/files");
 }
 
 function keyPath(key: string): string {
   if (!/^[0-9a-f]{64}$/.test(key)) throw new Error(`invalid storage key ${key}`);
-  return path.join(storageRoot(), key.slice(0, 2), key);
+  return path.join(/* turbopackIgnore: true */ storageRoot(), key.slice(0, 2), key);
 }
 
 /**
