@@ -1,9 +1,11 @@
 /**
  * HATCH entity handler for dxf-parser, which has none: reads the boundary
- * paths (polyline paths with bulges; edge paths of lines and circular arcs)
- * so a filled mask drawn as hatches can be read as outlines (issue 9).
- * Group codes from the DXF reference, HATCH entity and "Boundary path data".
+ * paths (polyline paths with bulges; edge paths of lines, circular arcs,
+ * elliptic arcs and splines) so a filled mask drawn as hatches can be read as
+ * outlines (issue 9). Group codes from the DXF reference, HATCH entity and
+ * "Boundary path data".
  */
+import { flattenNurbs, flattenParametric, type Pt } from "./curves";
 
 interface Group {
   code: number;
@@ -25,6 +27,9 @@ export interface HatchVertex {
 export type HatchEdge =
   | { kind: "line"; x0: number; y0: number; x1: number; y1: number }
   | { kind: "arc"; cx: number; cy: number; r: number; startDeg: number; endDeg: number; ccw: boolean }
+  /** Elliptic arc: centre, major-axis end point relative to it, minor/major ratio; angles in degrees from the major axis. */
+  | { kind: "ellipse"; cx: number; cy: number; mx: number; my: number; ratio: number; startDeg: number; endDeg: number; ccw: boolean }
+  | { kind: "spline"; degree: number; knots: number[]; controlPoints: Pt[]; weights: number[]; fitPoints: Pt[] }
   | { kind: "unsupported"; type: number };
 
 export type HatchPath = { kind: "polyline"; vertices: HatchVertex[] } | { kind: "edges"; edges: HatchEdge[] };
@@ -46,6 +51,33 @@ export function parseHatchGroups(groups: Group[]): Omit<RawHatch, "type"> {
   let i = 0;
   const at = (code: number) => i < groups.length && groups[i].code === code;
   const take = () => groups[i++];
+  /**
+   * A spline edge (type 4): 94 degree, 73 rational, 74 periodic, 95/96 counts, 40 knots, 10/20 (42) control
+   * points, then optionally 97 and 11/21 fit points and 12/22, 13/23 end tangents. Its 97 is the fit-point
+   * count only when fit data or tangents follow; otherwise it is the path's source-object count.
+   */
+  const readSplineEdge = (): HatchEdge => {
+    const e = { kind: "spline" as const, degree: 3, knots: [] as number[], controlPoints: [] as Pt[], weights: [] as number[], fitPoints: [] as Pt[] };
+    while (i < groups.length && !at(72) && !at(92)) {
+      const g = groups[i];
+      if (g.code === 97) {
+        const next = groups[i + 1]?.code;
+        if (next !== 11 && next !== 12 && next !== 13 && next !== 72) break;
+      }
+      i++;
+      const v = num(g.value);
+      switch (g.code) {
+        case 94: e.degree = v; break;
+        case 40: e.knots.push(v); break;
+        case 42: e.weights.push(v); break;
+        case 10: e.controlPoints.push({ x: v, y: NaN }); break;
+        case 20: { const p = e.controlPoints.at(-1); if (p) p.y = v; break; }
+        case 11: e.fitPoints.push({ x: v, y: NaN }); break;
+        case 21: { const p = e.fitPoints.at(-1); if (p) p.y = v; break; }
+      }
+    }
+    return e;
+  };
   while (i < groups.length) {
     const g = groups[i];
     if (g.code === 8) out.layer = String(g.value);
@@ -85,6 +117,10 @@ export function parseHatchGroups(groups: Group[]): Omit<RawHatch, "type"> {
             while (i < groups.length && !at(72)) i++;
             if (i >= groups.length) break;
             const type = num(take().value);
+            if (type === 4) {
+              edges.push(readSplineEdge());
+              continue;
+            }
             const vals = new Map<number, number>();
             // The edge's data runs up to the next edge's 72, or the path's 97 (source objects) / next 92.
             while (i < groups.length && !at(72) && !at(97) && !at(92)) {
@@ -93,7 +129,9 @@ export function parseHatchGroups(groups: Group[]): Omit<RawHatch, "type"> {
             }
             if (type === 1) edges.push({ kind: "line", x0: vals.get(10)!, y0: vals.get(20)!, x1: vals.get(11)!, y1: vals.get(21)! });
             else if (type === 2) edges.push({ kind: "arc", cx: vals.get(10)!, cy: vals.get(20)!, r: vals.get(40)!, startDeg: vals.get(50)!, endDeg: vals.get(51)!, ccw: (vals.get(73) ?? 1) !== 0 });
-            else edges.push({ kind: "unsupported", type });
+            else if (type === 3) {
+              edges.push({ kind: "ellipse", cx: vals.get(10)!, cy: vals.get(20)!, mx: vals.get(11)!, my: vals.get(21)!, ratio: vals.get(40)!, startDeg: vals.get(50)!, endDeg: vals.get(51)!, ccw: (vals.get(73) ?? 1) !== 0 });
+            } else edges.push({ kind: "unsupported", type });
           }
           out.paths.push({ kind: "edges", edges });
         }
@@ -122,4 +160,38 @@ export class HatchWithBoundaries {
     }
     return { type: "HATCH", ...parseHatchGroups(groups) };
   }
+}
+
+const TAU = 2 * Math.PI;
+const sweepOf = (s: number) => {
+  let v = s % TAU;
+  if (v <= 1e-12) v += TAU;
+  return v;
+};
+
+/**
+ * An elliptic-arc or spline boundary edge as points within the chord tolerance tol (drawing units), in the
+ * edge's own direction; null for a spline whose knots and control points do not make a B-spline and that
+ * has fewer than two fit points.
+ * Elliptic edges store angles from the major axis, not ellipse parameters (DXF reference, HATCH edge type 3);
+ * a clockwise edge stores them mirrored, as arc edges do.
+ */
+export function flattenHatchEdge(edge: Extract<HatchEdge, { kind: "ellipse" | "spline" }>, tol: number): Pt[] | null {
+  if (edge.kind === "spline") {
+    const weights = edge.weights.length === edge.controlPoints.length ? edge.weights : [];
+    const pts = edge.controlPoints.length > 0 ? flattenNurbs(edge.controlPoints, weights, edge.knots, edge.degree, tol) : null;
+    return pts ?? (edge.fitPoints.length >= 2 ? edge.fitPoints : null);
+  }
+  const { cx, cy, mx, my, ratio } = edge;
+  const rad = (deg: number) => ((edge.ccw ? deg : -deg) * Math.PI) / 180;
+  // Angle θ from the major axis → parameter t of x = a·cos t, y = b·sin t: tan t = tan θ / ratio.
+  const param = (theta: number) => Math.atan2(Math.sin(theta) / ratio, Math.cos(theta));
+  const t0 = param(rad(edge.startDeg));
+  const t1raw = param(rad(edge.endDeg));
+  const full = Math.abs(sweepOf(((edge.endDeg - edge.startDeg) * Math.PI) / 180) - TAU) < 1e-9;
+  const t1 = edge.ccw ? t0 + (full ? TAU : sweepOf(t1raw - t0)) : t0 - (full ? TAU : sweepOf(t0 - t1raw));
+  const nx = -my * ratio;
+  const ny = mx * ratio;
+  const f = (t: number): Pt => ({ x: cx + mx * Math.cos(t) + nx * Math.sin(t), y: cy + my * Math.cos(t) + ny * Math.sin(t) });
+  return flattenParametric(f, t0, t1, tol, Math.max(4, Math.ceil(Math.abs(t1 - t0) / (Math.PI / 8))));
 }

@@ -10,7 +10,7 @@ import type { IDxf, IEntity, IBlock } from "dxf-parser";
 import { LayoutError } from "../errors";
 import { flattenNurbs, flattenParametric, minRadiusOfPolyline, type Pt } from "./curves";
 import { COUNTED_ONLY_TYPES, countingHandler, PolylineWithWidths, SplineWithWeights, type RawPolyline, type RawSpline } from "./handlers";
-import { HatchWithBoundaries, type RawHatch } from "./hatch";
+import { flattenHatchEdge, HatchWithBoundaries, type RawHatch } from "./hatch";
 import type { ArcPiece, DrawingEntity, DxfDrawing, Piece } from "./types";
 import { INSUNITS_OTHER_NAMES, INSUNITS_TO_UNIT, METRES_PER_UNIT, type DrawingUnit } from "./units";
 
@@ -449,14 +449,16 @@ function walk(ctx: Ctx, entities: IEntity[], m: Affine, parentLayer: string | nu
         break;
       }
       case "HATCH": {
-        // Boundary paths as closed paths (issue 9: filled masks); elliptic and spline edges are not read.
+        // Boundary paths as closed paths (issue 9: filled masks).
         const h = raw as unknown as RawHatch;
         for (const path of h.paths ?? []) {
           let pieces: Piece[] = [];
+          let curveRadius: number | null = null;
           if (path.kind === "polyline") pieces = polylinePieces(path.vertices.map((v) => ({ x: v.x, y: v.y, bulge: v.bulge, sw: null, ew: null })), true);
           else {
-            if (path.edges.some((ed) => ed.kind === "unsupported")) {
-              note(ctx, "hatch_edge_skipped", "A hatch boundary with elliptic or spline edges was skipped; redraw it with lines and arcs or as a closed polyline.");
+            const unknown = path.edges.find((ed) => ed.kind === "unsupported");
+            if (unknown) {
+              note(ctx, "hatch_edge_skipped", `A hatch boundary with an edge of unknown type ${unknown.type} was skipped; redraw it with lines and arcs or as a closed polyline.`);
               continue;
             }
             for (const ed of path.edges) {
@@ -466,10 +468,20 @@ function walk(ctx: Ctx, entities: IEntity[], m: Affine, parentLayer: string | nu
                 const a0 = ((ed.ccw ? ed.startDeg : -ed.startDeg) * Math.PI) / 180;
                 const sweep = normSweep(((ed.endDeg - ed.startDeg) * Math.PI) / 180) * (ed.ccw ? 1 : -1);
                 pieces.push({ kind: "arc", cx: ed.cx, cy: ed.cy, r: ed.r, a0, sweep, w0: null, w1: null });
+              } else if (ed.kind !== "unsupported") {
+                const pts = flattenHatchEdge(ed, ctx.tol);
+                if (!pts) {
+                  note(ctx, "spline_invalid", "A spline with inconsistent knots or control points was skipped.");
+                  pieces = [];
+                  break;
+                }
+                const r = minRadiusOfPolyline(pts);
+                if (r !== null) curveRadius = curveRadius === null ? r : Math.min(curveRadius, r);
+                pieces.push(...linesThrough(pts, null, null));
               }
             }
           }
-          if (pieces.length > 0) pushPath(ctx, layer, type, handle, pieces, true, h.extrusionZ < 0 ? compose(m, MIRROR_X) : m, null);
+          if (pieces.length > 0) pushPath(ctx, layer, type, handle, pieces, true, h.extrusionZ < 0 ? compose(m, MIRROR_X) : m, curveRadius);
         }
         break;
       }
