@@ -2,7 +2,9 @@
  * Entity handlers registered into dxf-parser for the two entities whose stock
  * handlers drop values a layout needs: POLYLINE/VERTEX widths (codes 40, 41)
  * and SPLINE weights (code 41). They collect the raw groups and interpret them
- * here; everything else stays with dxf-parser's own handlers.
+ * here. LINE, ARC, CIRCLE and LWPOLYLINE get lean copies of dxf-parser's own
+ * handlers (same groups read, same values, same errors) that keep only the
+ * fields the reader uses. Everything else stays with dxf-parser's handlers.
  */
 
 interface Group {
@@ -14,6 +16,7 @@ interface Group {
 interface Scanner {
   next(): Group;
   isEOF(): boolean;
+  rewind(numberOfGroups?: number): void;
   lastReadGroup: Group;
 }
 
@@ -156,4 +159,175 @@ export function countingHandler(typeName: string) {
       return entity;
     }
   };
+}
+
+/** The fields of LINE, ARC, CIRCLE and LWPOLYLINE the reader uses, named as dxf-parser names them. */
+export interface LeanEntity {
+  type: string;
+  layer?: string;
+  handle?: string | number;
+  inPaperSpace?: boolean;
+  vertices?: { x: number; y: number; z?: number; bulge?: number; startWidth?: number; endWidth?: number }[];
+  center?: { x: number; y: number; z?: number };
+  radius?: number;
+  startAngle?: number;
+  endAngle?: number;
+  extrusionDirection?: { x: number; y: number; z?: number };
+  extrusionDirectionZ?: number;
+  width?: number;
+  shape?: boolean;
+}
+
+/**
+ * dxf-parser's parsePoint, given the x group just read: y must follow (else the same error), z may.
+ * The stock one rewinds to read the x group a second time; the values are the same.
+ */
+function leanPoint(scanner: Scanner, x: Group): { x: number; y: number; z?: number } {
+  const code = x.code;
+  const y = scanner.next();
+  if (y.code != code + 10) throw new Error("Expected code for point value to be " + (code + 10) + " but got " + y.code + ".");
+  const point: { x: number; y: number; z?: number } = { x: x.value as number, y: y.value as number };
+  const z = scanner.next();
+  if (z.code != code + 20) scanner.rewind();
+  else point.z = z.value as number;
+  return point;
+}
+
+/** dxf-parser's checkCommonEntityProperties for the fields the reader uses (the others have no effect on them). */
+function leanCommon(entity: LeanEntity, g: Group, scanner: Scanner): void {
+  switch (g.code) {
+    case 5: entity.handle = g.value as string; break;
+    case 8: entity.layer = g.value as string; break;
+    case 67: entity.inPaperSpace = g.value !== 0; break;
+    case 101: {
+      // An embedded object (AutoCAD 2018): skipped to the next entity, as dxf-parser does.
+      let c = g;
+      while (c.code != 0) c = scanner.next();
+      scanner.rewind();
+      break;
+    }
+  }
+}
+
+export class LeanLine {
+  public ForEntityName = "LINE" as const;
+  public parseEntity(scanner: Scanner, head: Group): LeanEntity {
+    const entity: LeanEntity = { type: head.value as string, vertices: [] };
+    let g = scanner.next();
+    while (!scanner.isEOF()) {
+      if (g.code === 0) break;
+      if (g.code === 10) entity.vertices!.unshift(leanPoint(scanner, g));
+      else if (g.code === 11) entity.vertices!.push(leanPoint(scanner, g));
+      else if (g.code === 210) entity.extrusionDirection = leanPoint(scanner, g);
+      else if (g.code !== 100) leanCommon(entity, g, scanner);
+      g = scanner.next();
+    }
+    return entity;
+  }
+}
+
+export class LeanArc {
+  public ForEntityName = "ARC" as const;
+  public parseEntity(scanner: Scanner, head: Group): LeanEntity {
+    const entity: LeanEntity = { type: head.value as string };
+    let g = scanner.next();
+    while (!scanner.isEOF()) {
+      if (g.code === 0) break;
+      switch (g.code) {
+        case 10: entity.center = leanPoint(scanner, g); break;
+        case 40: entity.radius = g.value as number; break;
+        case 50: entity.startAngle = (Math.PI / 180) * (g.value as number); break;
+        case 51: entity.endAngle = (Math.PI / 180) * (g.value as number); break;
+        case 230: entity.extrusionDirectionZ = g.value as number; break;
+        case 210: case 220: break;
+        default: leanCommon(entity, g, scanner);
+      }
+      g = scanner.next();
+    }
+    return entity;
+  }
+}
+
+export class LeanCircle {
+  public ForEntityName = "CIRCLE" as const;
+  public parseEntity(scanner: Scanner, head: Group): LeanEntity {
+    const entity: LeanEntity = { type: head.value as string };
+    let g = scanner.next();
+    while (!scanner.isEOF()) {
+      if (g.code === 0) break;
+      if (g.code === 10) entity.center = leanPoint(scanner, g);
+      else if (g.code === 40) entity.radius = g.value as number;
+      else if (g.code !== 50 && g.code !== 51) leanCommon(entity, g, scanner);
+      g = scanner.next();
+    }
+    return entity;
+  }
+}
+
+export class LeanLwpolyline {
+  public ForEntityName = "LWPOLYLINE" as const;
+  public parseEntity(scanner: Scanner, head: Group): LeanEntity {
+    const entity: LeanEntity = { type: head.value as string, vertices: [] };
+    let n = 0;
+    let g = scanner.next();
+    while (!scanner.isEOF()) {
+      if (g.code === 0) break;
+      switch (g.code) {
+        case 70: entity.shape = ((g.value as number) & 1) === 1; break;
+        case 90: n = g.value as number; break;
+        case 10: entity.vertices = leanLwVertices(n, scanner); break;
+        case 43: if (g.value !== 0) entity.width = g.value as number; break;
+        case 230: entity.extrusionDirectionZ = g.value as number; break;
+        case 38: case 39: case 210: case 220: break;
+        default: leanCommon(entity, g, scanner);
+      }
+      g = scanner.next();
+    }
+    return entity;
+  }
+}
+
+/**
+ * dxf-parser's parseLWPolylineVertices, with one difference: on a group that is not a vertex group it steps back
+ * one group, not two. Stepping back two re-reads the vertex's last group, which the entity loop ignores, except
+ * when that group is the 10 of a vertex without its 20: then the stock handler reads the same vertex for ever
+ * (a hung upload). Here that vertex lacks its y and the reader reports the entity as incomplete.
+ */
+function leanLwVertices(n: number, scanner: Scanner): NonNullable<LeanEntity["vertices"]> {
+  if (!n || n <= 0) throw Error("n must be greater than 0 verticies");
+  const vertices: NonNullable<LeanEntity["vertices"]> = [];
+  let started = false;
+  let finished = false;
+  let g = scanner.lastReadGroup;
+  for (let i = 0; i < n; i++) {
+    const v = {} as NonNullable<LeanEntity["vertices"]>[number];
+    while (!scanner.isEOF()) {
+      if (g.code === 0 || finished) break;
+      switch (g.code) {
+        case 10:
+          if (started) {
+            finished = true;
+            continue;
+          }
+          v.x = g.value as number;
+          started = true;
+          break;
+        case 20: v.y = g.value as number; break;
+        case 30: v.z = g.value as number; break;
+        case 40: v.startWidth = g.value as number; break;
+        case 41: v.endWidth = g.value as number; break;
+        case 42: if (g.value != 0) v.bulge = g.value as number; break;
+        default:
+          scanner.rewind();
+          if (started) vertices.push(v);
+          return vertices;
+      }
+      g = scanner.next();
+    }
+    vertices.push(v);
+    started = false;
+    finished = false;
+  }
+  scanner.rewind();
+  return vertices;
 }

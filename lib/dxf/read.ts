@@ -9,9 +9,10 @@ import DxfParser from "dxf-parser";
 import type { IDxf, IEntity, IBlock } from "dxf-parser";
 import { LayoutError } from "../errors";
 import { flattenNurbs, flattenParametric, minRadiusOfPolyline, type Pt } from "./curves";
-import { COUNTED_ONLY_TYPES, countingHandler, PolylineWithWidths, SplineWithWeights, type RawPolyline, type RawSpline } from "./handlers";
+import { COUNTED_ONLY_TYPES, countingHandler, LeanArc, LeanCircle, LeanLine, LeanLwpolyline, PolylineWithWidths, SplineWithWeights, type RawPolyline, type RawSpline } from "./handlers";
 import { flattenHatchEdge, HatchWithBoundaries, type RawHatch } from "./hatch";
 import type { ArcPiece, DrawingEntity, DxfDrawing, Piece } from "./types";
+import { TextScanner, type Group } from "./scanner";
 import { INSUNITS_OTHER_NAMES, INSUNITS_TO_UNIT, METRES_PER_UNIT, type DrawingUnit } from "./units";
 
 /** Largest layout accepted by default, bytes (25 MiB). */
@@ -29,6 +30,11 @@ export interface ReadDxfOptions {
   units?: DrawingUnit;
   /** Called as each stage ends (benchmark breakdown only). */
   onStage?: (stage: string) => void;
+  /**
+   * false: dxf-parser parses the whole text before any entity is walked, the way the streamed read (default) is
+   * checked against in the tests. Same result either way; the streamed read is faster and holds less.
+   */
+  streamEntities?: boolean;
 }
 
 /** 2-D affine map: x' = a·x + b·y + e, y' = c·x + d·y + f. */
@@ -121,32 +127,179 @@ export function keepLayoutSections(text: string): string {
   return parts.join("");
 }
 
-function parseText(text: string): IDxf {
+/** A dxf-parser entity handler, as dxf-parser keeps them by entity type name. */
+interface EntityHandler {
+  parseEntity(scanner: TextScanner, head: Group): IEntity;
+}
+
+function newParser(): DxfParser {
   const parser = new DxfParser();
   // dxf-parser's handler type names its own classes; ours have the same shape.
+  parser.registerEntityHandler(LeanLine as never);
+  parser.registerEntityHandler(LeanArc as never);
+  parser.registerEntityHandler(LeanCircle as never);
+  parser.registerEntityHandler(LeanLwpolyline as never);
   parser.registerEntityHandler(PolylineWithWidths as never);
   parser.registerEntityHandler(SplineWithWeights as never);
   for (const t of COUNTED_ONLY_TYPES) parser.registerEntityHandler(countingHandler(t) as never);
   // After the counting handlers: this one replaces their HATCH entry and reads the boundary paths.
   parser.registerEntityHandler(HatchWithBoundaries as never);
+  return parser;
+}
+
+/** dxf-parser's message for a file it cannot read, as a LayoutError. */
+function parseError(e: unknown): LayoutError {
+  const msg = e instanceof Error ? e.message : String(e);
+  if (/Unexpected end of input/i.test(msg)) {
+    return new LayoutError("truncated_file", "The DXF ends in the middle of a section: the file is truncated. Upload the complete file again.");
+  }
+  return new LayoutError("unreadable_dxf", `The DXF could not be read (${msg.slice(0, 200)}). Export it again as an ASCII DXF.`);
+}
+
+/** Run fn with the console silenced: dxf-parser reports oddities there and carries on; keep them off the CLI's JSON output. */
+function quietly<T>(fn: () => T): T {
   const saved = { error: console.error, log: console.log, warn: console.warn };
   try {
-    // dxf-parser reports oddities on the console and carries on; keep them off the CLI's JSON output.
     console.error = console.log = console.warn = () => undefined;
-    const dxf = parser.parseSync(keepLayoutSections(text));
-    if (!dxf) throw new Error("no result");
-    return dxf;
-  } catch (e) {
-    const msg = e instanceof Error ? e.message : String(e);
-    if (/Unexpected end of input/i.test(msg)) {
-      throw new LayoutError("truncated_file", "The DXF ends in the middle of a section: the file is truncated. Upload the complete file again.");
-    }
-    throw new LayoutError("unreadable_dxf", `The DXF could not be read (${msg.slice(0, 200)}). Export it again as an ASCII DXF.`);
+    return fn();
   } finally {
     console.error = saved.error;
     console.log = saved.log;
     console.warn = saved.warn;
   }
+}
+
+/** The whole text (layout sections only) through dxf-parser. */
+function parseText(kept: string): IDxf {
+  try {
+    const dxf = quietly(() => newParser().parseSync(kept));
+    if (!dxf) throw new Error("no result");
+    return dxf;
+  } catch (e) {
+    throw parseError(e);
+  }
+}
+
+const ENTITIES_START = /(^|\n)[ \t]*0[ \t]*\r?\n[ \t]*SECTION[ \t]*\r?\n[ \t]*2[ \t]*\r?\n[ \t]*ENTITIES[ \t]*\r?\n/g;
+const ENDSEC_GROUP = /(^|\n)([ \t]*0[ \t]*\r?\n[ \t]*ENDSEC[ \t]*)(\r?\n|$)/g;
+/** An entity type no DXF uses: a one-entity ENTITIES section of it stands in for the real one in the header-and-blocks parse. */
+const LONE_CR = /\r(?!\n)/g;
+const PROBE_TYPE = "$STOKELINE_ENTITIES_PROBE";
+const PROBE_SECTION = `0\nSECTION\n2\nENTITIES\n0\n${PROBE_TYPE}\n0\nENDSEC\n`;
+
+/** The ENTITIES section left for the streamed read: its body [from, endsecAt) in the kept text, and what dxf-parser made of the rest. */
+interface EntitiesSplit {
+  from: number;
+  endsecAt: number;
+  dxf: IDxf;
+  handlers: Record<string, EntityHandler>;
+  /** The automatic handle dxf-parser gave the probe: the next one it would give the first entity without a handle. */
+  nextHandle: number;
+}
+
+/**
+ * Parse everything but the ENTITIES section with dxf-parser, a probe entity in the section's place.
+ * Null when the file is not shaped so that the result is what the whole parse would give (then the caller parses
+ * the whole text): the section not found, dxf-parser not reading the probe as the model-space entities (a damaged
+ * file, a second ENTITIES section), handles after the section numbered by dxf-parser, a lone CR line end, or any error.
+ */
+function splitEntities(kept: string): EntitiesSplit | null {
+  ENTITIES_START.lastIndex = 0;
+  const start = ENTITIES_START.exec(kept);
+  if (!start) return null;
+  const sectionAt = start.index + start[1].length;
+  const from = start.index + start[0].length;
+  ENDSEC_GROUP.lastIndex = from - 1;
+  const end = ENDSEC_GROUP.exec(kept);
+  if (!end) return null;
+  const endsecAt = end.index + end[1].length;
+  const after = end.index + end[0].length;
+  // The scanner splits lines at LF (and CRLF); dxf-parser also at a lone CR.
+  LONE_CR.lastIndex = from;
+  if (LONE_CR.test(kept)) return null;
+  const parser = newParser();
+  let probe: object | null = null;
+  let probes = 0;
+  parser.registerEntityHandler(
+    class {
+      public ForEntityName = PROBE_TYPE;
+      public parseEntity(scanner: TextScanner) {
+        probes++;
+        for (let g = scanner.next(); !scanner.isEOF() && g.code !== 0; g = scanner.next());
+        return (probe = { type: PROBE_TYPE });
+      }
+    } as never,
+  );
+  const handlers = (parser as unknown as { _entityHandlers?: Record<string, EntityHandler> })._entityHandlers;
+  if (!handlers || typeof handlers !== "object") return null;
+  let dxf: IDxf | null;
+  try {
+    dxf = quietly(() => parser.parseSync(kept.slice(0, sectionAt) + PROBE_SECTION + kept.slice(after)));
+  } catch {
+    return null;
+  }
+  if (!dxf || probes !== 1 || dxf.entities?.length !== 1 || dxf.entities[0] !== probe) return null;
+  const nextHandle = (probe as { handle?: unknown }).handle;
+  if (typeof nextHandle !== "number") return null;
+  // A number handle above the probe's was given after the section; in the whole parse it would count the section's entities too.
+  for (const block of Object.values(dxf.blocks ?? {})) {
+    const late = (h: unknown) => typeof h === "number" && h > nextHandle;
+    if (late(block.handle) || (block.entities ?? []).some((e) => late(e.handle))) return null;
+  }
+  dxf.entities = [];
+  delete handlers[PROBE_TYPE];
+  return { from, endsecAt, dxf, handlers, nextHandle };
+}
+
+/**
+ * The ENTITIES section read group by group with dxf-parser's entity loop and handlers, each entity walked into ctx as
+ * soon as it is read, so the raw entities are never held together. A walk error waits until the section is read:
+ * a parse error anywhere comes first, as with the whole parse.
+ * @returns the number of entities read, or null when dxf-parser would have ended the section elsewhere.
+ */
+function streamEntities(ctx: Ctx, kept: string, split: EntitiesSplit): number | null {
+  const scanner = new TextScanner(kept, split.from, kept.length);
+  let nextHandle = split.nextHandle;
+  let read = 0;
+  let walkError: unknown = null;
+  let endAt = -1;
+  try {
+    quietly(() => {
+      let curr = scanner.next();
+      for (;;) {
+        if (curr.code !== 0) {
+          curr = scanner.next();
+          continue;
+        }
+        if (curr.value === "ENDSEC") break;
+        const handler = split.handlers[curr.value as string];
+        if (handler == null) {
+          curr = scanner.next();
+          continue;
+        }
+        const entity = handler.parseEntity(scanner, curr);
+        curr = scanner.lastReadGroup;
+        // dxf-parser's ensureHandle.
+        if (!entity) throw new TypeError("entity cannot be undefined or null");
+        if (!entity.handle) (entity as { handle: unknown }).handle = nextHandle++;
+        read++;
+        if (walkError === null) {
+          try {
+            walkEntity(ctx, entity, IDENTITY, null, 0, []);
+          } catch (e) {
+            walkError = e;
+          }
+        }
+      }
+      endAt = scanner.lastGroupStart;
+    });
+  } catch (e) {
+    throw parseError(e);
+  }
+  // The ENDSEC group that ended the loop must be the one found by text search, where the probe parse went on.
+  if (endAt !== split.endsecAt) return null;
+  if (walkError !== null) throw walkError;
+  return read;
 }
 
 type AnyEntity = IEntity & Record<string, unknown>;
@@ -348,15 +501,20 @@ function pushPath(ctx: Ctx, layer: string, type: string, handle: string | null, 
 }
 
 function walk(ctx: Ctx, entities: IEntity[], m: Affine, parentLayer: string | null, depth: number, stack: string[]) {
-  for (const raw of entities) {
+  for (const raw of entities) walkEntity(ctx, raw, m, parentLayer, depth, stack);
+}
+
+/** One parsed entity (an INSERT with its block) into ctx.out; the reader calls it as each top-level entity is parsed. */
+function walkEntity(ctx: Ctx, raw: IEntity, m: Affine, parentLayer: string | null, depth: number, stack: string[]) {
+  {
     const e = raw as AnyEntity;
-    if (e.inPaperSpace) continue;
+    if (e.inPaperSpace) return;
     const type = String(e.type ?? "UNKNOWN");
     const layer = layerOf(e, parentLayer);
     const handle = e.handle === undefined ? null : String(e.handle);
     if (type === "INSERT") {
       expandInsert(ctx, e, m, layer, depth, stack);
-      continue;
+      return;
     }
     count(ctx, layer, type);
     const ocs = Number((e.extrusionDirectionZ as number | undefined) ?? (e.extrusionDirection as Pt & { z?: number } | undefined)?.z ?? 1) < 0 ? compose(m, MIRROR_X) : m;
@@ -556,8 +714,10 @@ function checkFinite(entities: DrawingEntity[]) {
 export function readDxf(input: string | Uint8Array, options: ReadDxfOptions): DxfDrawing {
   const text = decodeLayout(input, options.maxBytes);
   options.onStage?.("checks and decoding");
-  const dxf = parseText(text);
-  options.onStage?.("dxf-parser parse");
+  const kept = keepLayoutSections(text);
+  const split = options.streamEntities === false ? null : splitEntities(kept);
+  let dxf = split ? split.dxf : parseText(kept);
+  options.onStage?.(split ? "dxf-parser parse (all but the entities)" : "dxf-parser parse");
   const rawIns = dxf.header?.["$INSUNITS"];
   const insUnits = typeof rawIns === "number" && Number.isFinite(rawIns) ? rawIns : null;
   const fromFile = insUnits === null ? undefined : INSUNITS_TO_UNIT[insUnits];
@@ -571,17 +731,32 @@ export function readDxf(input: string | Uint8Array, options: ReadDxfOptions): Dx
     : `The drawing ${declared}. Say which unit its coordinates are in: add "units": "um" (or nm, mm, cm, m, in, mil) to the conditions.`;
   // Without known units, flatten as if in micrometres: only the layer listing uses such a read.
   const tol = options.chordToleranceM / (units?.metresPerUnit ?? 1e-6);
-  const ctx: Ctx = { blocks: dxf.blocks ?? {}, tol, out: [], counts: new Map(), notes: new Map(), expanded: 0, lastLayer: null, lastCounts: null };
+  const newCtx = (): Ctx => ({ blocks: dxf.blocks ?? {}, tol, out: [], counts: new Map(), notes: new Map(), expanded: 0, lastLayer: null, lastCounts: null });
+  let ctx = newCtx();
+  const walkAll = (entities: IEntity[]) => {
+    try {
+      walk(ctx, entities, IDENTITY, null, 0, []);
+    } catch (e) {
+      throw walkError(e);
+    }
+  };
   // Some writers put model space only in the *Model_Space block and leave out the ENTITIES section.
-  const modelBlock = Object.entries(ctx.blocks).find(([name]) => name.toLowerCase() === "*model_space")?.[1];
-  const top = dxf.entities && dxf.entities.length > 0 ? dxf.entities : (modelBlock?.entities ?? []);
-  try {
-    walk(ctx, top, IDENTITY, null, 0, []);
-  } catch (e) {
-    if (e instanceof LayoutError) throw e;
-    // A shape the parser accepted but no entity reader expects: the file is damaged, not the reader.
-    throw new LayoutError("unreadable_dxf", `The DXF has an entity Stokeline cannot read (${e instanceof Error ? e.message.slice(0, 120) : "malformed data"}). Export it again as an ASCII DXF.`);
+  const modelEntities = () => Object.entries(ctx.blocks).find(([name]) => name.toLowerCase() === "*model_space")?.[1]?.entities ?? [];
+  let streamed: number | null = null;
+  if (split) {
+    try {
+      streamed = streamEntities(ctx, kept, split);
+    } catch (e) {
+      throw e instanceof LayoutError ? e : walkError(e);
+    }
+    if (streamed === null) {
+      // dxf-parser would end the section elsewhere: read the whole text its way after all.
+      dxf = parseText(kept);
+      ctx = newCtx();
+    }
   }
+  if (streamed === null) walkAll(dxf.entities && dxf.entities.length > 0 ? dxf.entities : modelEntities());
+  else if (streamed === 0) walkAll(modelEntities());
   checkFinite(ctx.out);
   options.onStage?.("entities, blocks, curves");
   return {
@@ -592,6 +767,13 @@ export function readDxf(input: string | Uint8Array, options: ReadDxfOptions): Dx
     layerCounts: ctx.counts,
     notes: [...ctx.notes.values()].map((n) => ({ code: n.code, message: n.n > 1 ? `${n.message} (${n.n} times)` : n.message })),
   };
+}
+
+/** A walk failure as the reader reports it. */
+function walkError(e: unknown): LayoutError {
+  if (e instanceof LayoutError) return e;
+  // A shape the parser accepted but no entity reader expects: the file is damaged, not the reader.
+  return new LayoutError("unreadable_dxf", `The DXF has an entity Stokeline cannot read (${e instanceof Error ? e.message.slice(0, 120) : "malformed data"}). Export it again as an ASCII DXF.`);
 }
 
 export { arcEnd };
