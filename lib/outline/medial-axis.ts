@@ -1,12 +1,19 @@
 /**
  * Centrelines of a filled mask region: the medial axis from the Voronoi
- * diagram of densely sampled boundary points (d3-delaunay), pruned of the
- * spurs that corners create, split at junctions, with the local width from
- * the exact distance to the walls. Drawing units throughout (the caller
- * converts to SI).
+ * diagram of boundary samples (d3-delaunay), pruned of the spurs that corners
+ * create, split at junctions, with the local width from the exact distance to
+ * the walls. Drawing units throughout (the caller converts to SI).
+ *
+ * Where the shapes do not overlap, the boundary is sampled sparsely along
+ * straight walls (a wall is a line, not its samples): each Voronoi vertex is
+ * moved onto the exact bisector of the walls its samples lie on, and the
+ * triangles inside the region are found by flooding the triangulation from
+ * its wall edges. Where shapes overlap, or the sparse triangulation does not
+ * follow the walls, the boundary is sampled densely and each Voronoi vertex
+ * is tested against the region.
  */
 import { Delaunay } from "d3-delaunay";
-import { filledArea, Region, WallGrid, type Ring } from "./region";
+import { orientRings, orientedArea, Region, segDist2, WallGrid, type OrientedRings, type Ring } from "./region";
 
 /** Samples per smallest width (common practice for Voronoi medial axes: a few samples across the narrowest gap). */
 export const SAMPLES_PER_WIDTH = 6;
@@ -14,6 +21,14 @@ export const SAMPLES_PER_WIDTH = 6;
 export const PRUNE_FACTOR = 2;
 /** Most boundary samples one layer may use (keeps memory bounded); beyond it the step grows and a note says so. */
 export const MAX_SAMPLES = 3_000_000;
+/**
+ * Widest sample spacing along a straight wall, in smallest widths. Voronoi vertices between two walls sampled
+ * at spacing s stray s²/8w from the midline of a channel w wide (plane geometry); they are moved back onto the
+ * walls' exact bisector, so the spacing only has to keep the triangulation along the walls.
+ */
+export const WALL_SPACING_WIDTHS = 2;
+/** Width profile: a point is added where straight interpolation of the radius would be off by more than this fraction. */
+export const WIDTH_TOLERANCE = 0.005;
 
 export interface CentrelinePath {
   /** Points along the centreline, drawing units. */
@@ -24,8 +39,10 @@ export interface CentrelinePath {
 
 export interface MedialAxisResult {
   paths: CentrelinePath[];
-  /** Boundary sampling step used, drawing units. */
+  /** Boundary sampling step used (at polygon vertices, and everywhere where shapes overlap), drawing units. */
   stepUnits: number;
+  /** Widest spacing used along straight walls, drawing units (equal to stepUnits where sampled evenly). */
+  maxSpacingUnits: number;
   /** Spur pruning: leaf branches shorter than PRUNE_FACTOR × the junction radius, this at the narrowest junction, drawing units. */
   pruneLengthUnits: number;
   /** Smallest channel width found (twice the smallest inner radius), drawing units. */
@@ -35,17 +52,6 @@ export interface MedialAxisResult {
   /** Number of holes (rings inside a filled ring). */
   holes: number;
   notes: string[];
-}
-
-interface Graph {
-  x: Float64Array;
-  y: Float64Array;
-  r: Float64Array;
-  /** Neighbours per vertex; only vertices on the axis have an entry (read only for live vertices). */
-  adj: number[][];
-  alive: Uint8Array;
-  /** The vertices that have neighbours, ascending. */
-  verts: number[];
 }
 
 /**
@@ -61,10 +67,11 @@ export function extractMedialAxis(rings: Ring[], stepUnits?: number): MedialAxis
     const a = r[i], b = r[(i + 1) % r.length];
     perimeter += Math.hypot(b[0] - a[0], b[1] - a[1]);
   }
+  const prep = orientRings(rings);
   let step = stepUnits;
   if (step === undefined) {
     // First guess from the shapes' hydraulic-width-like ratio 2·area/perimeter (a thin band's width), refined below.
-    const area = Math.max(0, filledArea(rings));
+    const area = Math.max(0, orientedArea(prep));
     step = (2 * area) / Math.max(perimeter, 1e-300) / SAMPLES_PER_WIDTH;
   }
   const floor = perimeter / MAX_SAMPLES;
@@ -72,27 +79,149 @@ export function extractMedialAxis(rings: Ring[], stepUnits?: number): MedialAxis
     notes.push(`The outline is too long for its smallest feature; the boundary was sampled every ${floor.toPrecision(3)} drawing units instead of ${step.toPrecision(3)}.`);
     step = floor;
   }
-  let result = medialAxisAt(rings, step);
+  let result = medialAxisAt(prep, step);
   if (stepUnits === undefined && result.minWidthUnits / SAMPLES_PER_WIDTH < step / 1.5 && result.minWidthUnits > 0) {
     // A narrower channel than the first guess: sample again at the step its width asks for.
     const finer = Math.max(result.minWidthUnits / SAMPLES_PER_WIDTH, floor);
-    if (finer < step) result = medialAxisAt(rings, finer);
+    if (finer < step) result = medialAxisAt(prep, finer);
   }
   result.notes.unshift(...notes);
   return result;
 }
 
-function medialAxisAt(rings: Ring[], step: number): MedialAxisResult {
-  const region = new Region(rings, step * 4);
+/** Boundary samples in ring order, with the ring edges they lie on (typed arrays: tens of thousands of them). */
+interface Samples {
+  n: number;
+  x: Float64Array;
+  y: Float64Array;
+  ring: Int32Array;
+  /** Position in its ring's run of samples. */
+  k: Int32Array;
+  /** Distance along its ring from the ring's first vertex. */
+  pos: Float64Array;
+  /** Ring edge the sample lies on; at a polygon vertex, the edge ending there (e1 the one starting there, else -1). */
+  e0: Int32Array;
+  e1: Int32Array;
+  ringStart: Int32Array;
+  ringCount: Int32Array;
+  perim: Float64Array;
+}
+
+class SampleBuilder {
+  x: number[] = [];
+  y: number[] = [];
+  ring: number[] = [];
+  k: number[] = [];
+  pos: number[] = [];
+  e0: number[] = [];
+  e1: number[] = [];
+  ringStart: number[] = [];
+  ringCount: number[] = [];
+  perim: number[] = [];
+  push(x: number, y: number, ring: number, pos: number, e0: number, e1: number) {
+    this.k.push(this.x.length - this.ringStart[ring]);
+    this.x.push(x);
+    this.y.push(y);
+    this.ring.push(ring);
+    this.pos.push(pos);
+    this.e0.push(e0);
+    this.e1.push(e1);
+  }
+  build(): Samples {
+    return {
+      n: this.x.length,
+      x: Float64Array.from(this.x),
+      y: Float64Array.from(this.y),
+      ring: Int32Array.from(this.ring),
+      k: Int32Array.from(this.k),
+      pos: Float64Array.from(this.pos),
+      e0: Int32Array.from(this.e0),
+      e1: Int32Array.from(this.e1),
+      ringStart: Int32Array.from(this.ringStart),
+      ringCount: Int32Array.from(this.ringCount),
+      perim: Float64Array.from(this.perim),
+    };
+  }
+}
+
+/** Ring edges as x0 y0 x1 y1, in ring order; edge i of ring r has id ringEdgeStart[r] + i. */
+interface RingEdges {
+  edges: Float64Array;
+  ringEdgeStart: Int32Array;
+  ringOfEdge: Int32Array;
+}
+
+function edgesOf(rings: Ring[]): RingEdges {
+  let nE = 0;
+  const ringEdgeStart = new Int32Array(rings.length + 1);
+  rings.forEach((r, i) => {
+    ringEdgeStart[i] = nE;
+    nE += r.length;
+  });
+  ringEdgeStart[rings.length] = nE;
+  const edges = new Float64Array(4 * nE);
+  const ringOfEdge = new Int32Array(nE);
+  let e = 0;
+  rings.forEach((r, ri) => {
+    for (let i = 0; i < r.length; i++, e++) {
+      const a = r[i], b = r[(i + 1) % r.length];
+      edges[4 * e] = a[0];
+      edges[4 * e + 1] = a[1];
+      edges[4 * e + 2] = b[0];
+      edges[4 * e + 3] = b[1];
+      ringOfEdge[e] = ri;
+    }
+  });
+  return { edges, ringEdgeStart, ringOfEdge };
+}
+
+/** Distances from an edge's start at which it is sampled inside (0 < d < len): `step` from each end, evenly between at most `maxSpacing` apart. */
+function spacingAlong(len: number, step: number, maxSpacing: number, out: number[]): void {
+  out.length = 0;
+  if (maxSpacing <= step || len <= 3 * step) {
+    const n = Math.max(1, Math.ceil(len / step));
+    for (let k = 1; k < n; k++) out.push((len * k) / n);
+    return;
+  }
+  const inner = len - 2 * step;
+  const n = Math.max(1, Math.ceil(inner / maxSpacing));
+  for (let k = 0; k <= n; k++) out.push(step + (inner * k) / n);
+}
+
+/** Every polygon vertex, and points along each edge (see spacingAlong). */
+function sampleWalls(prep: OrientedRings, ringEdgeStart: Int32Array, step: number, maxSpacing: number): Samples {
+  const b = new SampleBuilder();
+  const along: number[] = [];
+  prep.rings.forEach((ring, ri) => {
+    b.ringStart.push(b.x.length);
+    const base = ringEdgeStart[ri];
+    const m = ring.length;
+    let s = 0;
+    for (let i = 0; i < m; i++) {
+      const [ax, ay] = ring[i];
+      const [bx, by] = ring[(i + 1) % m];
+      const len = Math.hypot(bx - ax, by - ay);
+      b.push(ax, ay, ri, s, base + ((i + m - 1) % m), base + i);
+      spacingAlong(len, step, maxSpacing, along);
+      for (const d of along) b.push(ax + ((bx - ax) * d) / len, ay + ((by - ay) * d) / len, ri, s + d, base + i, -1);
+      s += len;
+    }
+    b.ringCount.push(b.x.length - b.ringStart[ri]);
+    b.perim.push(s);
+  });
+  return b.build();
+}
+
+/**
+ * Even samples every ≤ step, dropping those inside the filled area (where shapes overlap, a wall is not a wall);
+ * the walls for widths are whole edges where no sample fell inside the filled area, else the runs between kept samples.
+ */
+function sampleOverlapping(region: Region, ringEdgeStart: Int32Array, step: number): { samples: Samples; walls: Float64Array } {
   const eps = step * 1e-3;
-  // Boundary samples, dropping those inside the filled area (where shapes overlap, a wall is not a wall).
-  const xs: number[] = [];
-  const ys: number[] = [];
-  const ringOf: number[] = [];
-  const posOf: number[] = [];
-  // Walls for widths: whole edges where no sample fell inside the filled area, else the runs between kept samples.
+  const b = new SampleBuilder();
   const walls: number[] = [];
   region.rings.forEach((ring, ri) => {
+    b.ringStart.push(b.x.length);
     let s = 0;
     for (let i = 0; i < ring.length; i++) {
       const [ax, ay] = ring[i];
@@ -112,256 +241,623 @@ function medialAxisAt(rings: Ring[], step: number): MedialAxisResult {
         if (kept && prevKept && dropped > 0) walls.push(ax + ((bx - ax) * (k - 1)) / n, ay + ((by - ay) * (k - 1)) / n, x, y);
         prevKept = kept;
         if (!kept || k === n) continue;
-        xs.push(x);
-        ys.push(y);
-        ringOf.push(ri);
-        posOf.push(s + (len * k) / n);
+        b.push(x, y, ri, s + (len * k) / n, ringEdgeStart[ri] + i, -1);
       }
       if (dropped === 0) walls.push(ax, ay, bx, by);
       s += len;
     }
+    b.ringCount.push(b.x.length - b.ringStart[ri]);
+    b.perim.push(s);
   });
-  const wallGrid = new WallGrid(Float64Array.from(walls), step * 4);
-  const perimOf = region.rings.map((r) => r.reduce((acc, a, i) => acc + Math.hypot(r[(i + 1) % r.length][0] - a[0], r[(i + 1) % r.length][1] - a[1]), 0));
-  const n = xs.length;
+  return { samples: b.build(), walls: Float64Array.from(walls) };
+}
+
+type Mode = "sparse" | "dense" | "overlapping";
+
+function medialAxisAt(prep: OrientedRings, step: number): MedialAxisResult {
+  const ed = edgesOf(prep.rings);
+  const { edges, ringEdgeStart, ringOfEdge } = ed;
+  const wallGrid = new WallGrid(edges, step * 4);
+  const ringLen = (r: number) => ringEdgeStart[r + 1] - ringEdgeStart[r];
+  // Consecutive edges of one ring share their vertex; any other contact means shapes overlap or touch.
+  const overlapping = wallGrid.anyMeeting((a, b) => {
+    const r = ringOfEdge[a];
+    if (ringOfEdge[b] !== r) return false;
+    const d = Math.abs(a - b);
+    return d === 1 || d === ringLen(r) - 1;
+  });
+  let regionCache: Region | undefined;
+  // Cells about as many as edges: the region answers only a few inside tests per dead end here.
+  const region = (cell: number) => (regionCache ??= new Region([], cell, prep));
+  if (overlapping) {
+    const reg = region(step * 4);
+    const { samples, walls } = sampleOverlapping(reg, ringEdgeStart, step);
+    return axisFromSamples(prep, step, step, samples, ed, new WallGrid(walls, step * 4), "overlapping", () => reg)!;
+  }
+  const maxSpacing = WALL_SPACING_WIDTHS * SAMPLES_PER_WIDTH * step;
+  const coarseCell = Math.max(step * 4, Math.sqrt(Math.max(1e-300, (wallGrid.width * wallGrid.height) / Math.max(1, edges.length / 4))));
+  const sparse = axisFromSamples(prep, step, maxSpacing, sampleWalls(prep, ringEdgeStart, step, maxSpacing), ed, wallGrid, "sparse", () => region(coarseCell));
+  if (sparse) return sparse;
+  const reg = region(step * 4);
+  return axisFromSamples(prep, step, step, sampleWalls(prep, ringEdgeStart, step, step), ed, wallGrid, "dense", () => reg)!;
+}
+
+const nextHalfedge = (e: number) => (e % 3 === 2 ? e - 2 : e + 1);
+
+/**
+ * Triangles inside the filled area, by flooding the triangulation from the boundary steps (consecutive samples
+ * of a ring: the filled side is on the ring's left, and d3-delaunay's triangles turn clockwise). Null when a ring
+ * step is missing from the triangulation or the flood meets both sides (the triangulation does not follow the walls).
+ */
+function floodInside(S: Samples, triangles: Uint32Array | Int32Array, halfedges: Int32Array): Uint8Array | null {
+  const nT = triangles.length / 3;
+  const label = new Uint8Array(nT); // 0 unknown, 1 inside, 2 outside
+  const wall = new Uint8Array(halfedges.length);
+  const stepFound = new Uint8Array(S.n);
+  const succ = (p: number) => {
+    const r = S.ring[p];
+    return S.k[p] + 1 === S.ringCount[r] ? S.ringStart[r] : p + 1;
+  };
+  const stack: number[] = [];
+  for (let e = 0; e < halfedges.length; e++) {
+    const p = triangles[e], q = triangles[nextHalfedge(e)];
+    let lab = 0;
+    if (succ(p) === q) {
+      lab = 2;
+      stepFound[p] = 1;
+    } else if (succ(q) === p) {
+      lab = 1;
+      stepFound[q] = 1;
+    }
+    if (lab === 0) continue;
+    wall[e] = 1;
+    const t = (e / 3) | 0;
+    if (label[t] === 0) {
+      label[t] = lab;
+      stack.push(t);
+    } else if (label[t] !== lab) return null;
+  }
+  for (let p = 0; p < S.n; p++) if (!stepFound[p]) return null;
+  while (stack.length) {
+    const t = stack.pop()!;
+    for (let e = 3 * t; e < 3 * t + 3; e++) {
+      if (wall[e]) continue;
+      const o = halfedges[e];
+      if (o < 0) continue;
+      const u = (o / 3) | 0;
+      if (label[u] === 0) {
+        label[u] = label[t];
+        stack.push(u);
+      } else if (label[u] !== label[t]) return null;
+    }
+  }
+  const inside = new Uint8Array(nT);
+  for (let t = 0; t < nT; t++) {
+    if (label[t] === 0) return null;
+    inside[t] = label[t] === 1 ? 1 : 0;
+  }
+  return inside;
+}
+
+/** Edges (ids) a sample's wall consists of, into out; returns how many. */
+function wallEdges(S: Samples, p: number, out: Int32Array, at: number): number {
+  out[at] = S.e0[p];
+  if (S.e1[p] < 0) return 1;
+  out[at + 1] = S.e1[p];
+  return 2;
+}
+
+const shareEdge = (S: Samples, p: number, q: number) => {
+  const a0 = S.e0[p], a1 = S.e1[p], b0 = S.e0[q], b1 = S.e1[q];
+  return a0 === b0 || a0 === b1 || (a1 >= 0 && (a1 === b0 || a1 === b1));
+};
+
+/**
+ * Moves points onto the exact medial axis of walls: Newton steps on the differences of distances to two walls
+ * (or three, at a junction), each distance to the nearest of a wall's edges. The walls come from the samples
+ * of a Delaunay triangle (its Voronoi vertex), or are those two neighbouring vertices have in common.
+ */
+class Projector {
+  private readonly sites = new Int32Array(24);
+  private readonly siteStart = new Int32Array(4);
+  private nSites = 0;
+  private readonly near = new Float64Array(3);
+  private readonly ux = new Float64Array(3);
+  private readonly uy = new Float64Array(3);
+  x = 0;
+  y = 0;
+  r = 0;
+
+  constructor(
+    private readonly S: Samples,
+    private readonly E: Float64Array,
+    private readonly ringOfEdge: Int32Array,
+    private readonly ringEdgeStart: Int32Array,
+  ) {}
+
+  /**
+   * Signed distance from (x, y) to site j (positive on the filled side) and its gradient: the nearest of the
+   * site's edges decides; where the nearest point is an edge's end, the side comes from the sum of the two
+   * edges' normals there (the angle-weighted pseudo-normal, which is exact for the nearest point of a polygon).
+   */
+  private measure(j: number, x: number, y: number): void {
+    const E = this.E;
+    let best = Infinity, bx = 0, by = 0, be = -1, bt = 0;
+    for (let k = this.siteStart[j]; k < this.siteStart[j + 1]; k++) {
+      const e = this.sites[k];
+      const ax = E[4 * e], ay = E[4 * e + 1], dx = E[4 * e + 2] - ax, dy = E[4 * e + 3] - ay;
+      const l2 = dx * dx + dy * dy;
+      let t = l2 === 0 ? 0 : ((x - ax) * dx + (y - ay) * dy) / l2;
+      t = t < 0 ? 0 : t > 1 ? 1 : t;
+      const px = ax + t * dx, py = ay + t * dy;
+      const d2 = (x - px) * (x - px) + (y - py) * (y - py);
+      if (d2 < best) {
+        best = d2;
+        bx = px;
+        by = py;
+        be = e;
+        bt = t;
+      }
+    }
+    const d = Math.sqrt(best);
+    let ox = x - bx, oy = y - by;
+    if (d > 0) {
+      ox /= d;
+      oy /= d;
+    }
+    // Inward (left) normal of edge be, and at an end the neighbouring edge's too.
+    let sx = E[4 * be + 1] - E[4 * be + 3], sy = E[4 * be + 2] - E[4 * be];
+    if (bt === 0 || bt === 1) {
+      const f = bt === 0 ? this.prevEdge(be) : this.nextEdge(be);
+      const fx = E[4 * f + 1] - E[4 * f + 3], fy = E[4 * f + 2] - E[4 * f];
+      const l1 = Math.hypot(sx, sy), l2 = Math.hypot(fx, fy);
+      sx = sx / l1 + fx / l2;
+      sy = sy / l1 + fy / l2;
+    }
+    const sign = ox * sx + oy * sy < 0 ? -1 : 1;
+    this.near[j] = sign * d;
+    this.ux[j] = sign * ox;
+    this.uy[j] = sign * oy;
+  }
+
+  private prevEdge(e: number): number {
+    const r = this.ringOfEdge[e], a = this.ringEdgeStart[r], m = this.ringEdgeStart[r + 1] - a;
+    return a + ((e - a + m - 1) % m);
+  }
+  private nextEdge(e: number): number {
+    const r = this.ringOfEdge[e], a = this.ringEdgeStart[r], m = this.ringEdgeStart[r + 1] - a;
+    return a + ((e - a + 1) % m);
+  }
+
+  private addSite(p: number, q = -1): void {
+    let k = this.siteStart[this.nSites];
+    k += wallEdges(this.S, p, this.sites, k);
+    if (q >= 0) k += wallEdges(this.S, q, this.sites, k);
+    this.nSites++;
+    this.siteStart[this.nSites] = k;
+  }
+
+  /** The walls of samples a, b, c: samples sharing an edge are one wall; returns how many walls (1 to 3). */
+  wallsOf(a: number, b: number, c: number): number {
+    const S = this.S;
+    this.nSites = 0;
+    this.siteStart[0] = 0;
+    const sab = shareEdge(S, a, b), sbc = shareEdge(S, b, c), sac = shareEdge(S, a, c);
+    const same = (sab ? 1 : 0) + (sbc ? 1 : 0) + (sac ? 1 : 0);
+    if (same === 3) this.addSite(a, b), this.addSite(c);
+    else if (same === 2) {
+      // One sample sits at the vertex joining the other two's edges: the bisector of those two edges.
+      if (!sab) this.addSite(a), this.addSite(b);
+      else if (!sbc) this.addSite(b), this.addSite(c);
+      else this.addSite(a), this.addSite(c);
+    } else if (same === 1) {
+      if (sab) this.addSite(a, b), this.addSite(c);
+      else if (sbc) this.addSite(b, c), this.addSite(a);
+      else this.addSite(a, c), this.addSite(b);
+    } else this.addSite(a), this.addSite(b), this.addSite(c);
+    return same === 3 ? 1 : this.nSites;
+  }
+
+  private readonly keptSites = new Int32Array(24);
+  private readonly keptStart = new Int32Array(4);
+
+  /** The walls two Voronoi vertices (triangles of samples a, b, c) share, each pair merged; returns how many (0 to 2). */
+  sharedWalls(a0: number, b0: number, c0: number, a1: number, b1: number, c1: number): number {
+    if (this.wallsOf(a0, b0, c0) < 2) return 0;
+    const n0 = this.nSites;
+    const A = this.keptSites, As = this.keptStart;
+    A.set(this.sites.subarray(0, this.siteStart[n0]));
+    As.set(this.siteStart.subarray(0, n0 + 1));
+    if (this.wallsOf(a1, b1, c1) < 2) return 0;
+    const n1 = this.nSites;
+    const B = this.sites.slice(0, this.siteStart[n1]), Bs = this.siteStart.slice(0, n1 + 1);
+    let nOut = 0, k = 0;
+    this.siteStart[0] = 0;
+    for (let g = 0; g < n0 && nOut < 2; g++) {
+      let match = -1;
+      for (let h = 0; h < n1 && match < 0; h++) {
+        for (let i = As[g]; i < As[g + 1] && match < 0; i++) for (let j = Bs[h]; j < Bs[h + 1]; j++) if (A[i] === B[j]) { match = h; break; }
+      }
+      if (match < 0) continue;
+      const from = k;
+      for (let i = As[g]; i < As[g + 1]; i++) this.sites[k++] = A[i];
+      for (let j = Bs[match]; j < Bs[match + 1]; j++) {
+        let dup = false;
+        for (let i = from; i < k; i++) if (this.sites[i] === B[j]) { dup = true; break; }
+        if (!dup) this.sites[k++] = B[j];
+      }
+      nOut++;
+      this.siteStart[nOut] = k;
+    }
+    this.nSites = nOut;
+    return nOut;
+  }
+
+  /** Distance from (x, y) to the nearest of the current walls. */
+  nearest(x: number, y: number): number {
+    let best = Infinity;
+    for (let j = 0; j < this.nSites; j++) {
+      this.measure(j, x, y);
+      best = Math.min(best, this.near[j]);
+    }
+    return best;
+  }
+
+  /**
+   * Newton from (sx, sy), a point inside the region, onto the current walls' bisector (or their common point,
+   * for three); sets x, y, r. False when it does not settle within 2·cr of (cx, cy) (the empty circle's centre
+   * and radius, which bound where the axis point can be).
+   */
+  solve(sx: number, sy: number, cx: number, cy: number, cr: number): boolean {
+    const nSites = this.nSites;
+    if (nSites < 2) return false;
+    let x = sx, y = sy;
+    const tol = cr * 1e-12;
+    for (let it = 0; it < 8; it++) {
+      for (let j = 0; j < nSites; j++) this.measure(j, x, y);
+      const f1 = this.near[0] - this.near[1];
+      const g1x = this.ux[0] - this.ux[1], g1y = this.uy[0] - this.uy[1];
+      if (nSites === 2) {
+        if (Math.abs(f1) <= tol) break;
+        const gg = g1x * g1x + g1y * g1y;
+        if (!(gg > 1e-12)) return false;
+        x -= (f1 * g1x) / gg;
+        y -= (f1 * g1y) / gg;
+      } else {
+        const f2 = this.near[0] - this.near[2];
+        if (Math.abs(f1) <= tol && Math.abs(f2) <= tol) break;
+        const g2x = this.ux[0] - this.ux[2], g2y = this.uy[0] - this.uy[2];
+        const det = g1x * g2y - g1y * g2x;
+        if (!(Math.abs(det) > 1e-9)) return false;
+        x -= (f1 * g2y - f2 * g1y) / det;
+        y -= (g1x * f2 - g2x * f1) / det;
+      }
+    }
+    for (let j = 0; j < nSites; j++) this.measure(j, x, y);
+    const r = this.near[0];
+    let spread = 0;
+    for (let j = 1; j < nSites; j++) spread = Math.max(spread, Math.abs(this.near[j] - r));
+    if (!(r > 0) || !(spread <= 1e-6 * r) || !(Math.hypot(x - cx, y - cy) <= 2 * cr)) return false;
+    this.x = x;
+    this.y = y;
+    this.r = r;
+    return true;
+  }
+}
+
+/** The axis after pruning: chains of Voronoi vertices (triangle ids) between nodes. */
+interface Branch {
+  v: number[];
+  a: number;
+  b: number;
+  len: number;
+  alive: boolean;
+}
+
+function axisFromSamples(
+  prep: OrientedRings,
+  step: number,
+  maxSpacing: number,
+  S: Samples,
+  ed: RingEdges,
+  walls: WallGrid,
+  mode: Mode,
+  region: () => Region,
+): MedialAxisResult | null {
+  const n = S.n;
   const coords = new Float64Array(2 * n);
   for (let i = 0; i < n; i++) {
-    coords[2 * i] = xs[i];
-    coords[2 * i + 1] = ys[i];
+    coords[2 * i] = S.x[i];
+    coords[2 * i + 1] = S.y[i];
   }
   const del = new Delaunay(coords);
   const { triangles, halfedges } = del;
   const nT = triangles.length / 3;
+  let inside: Uint8Array;
+  if (mode === "sparse") {
+    const flood = floodInside(S, triangles, halfedges);
+    if (!flood) return null;
+    inside = flood;
+  } else inside = new Uint8Array(nT);
   const gx = new Float64Array(nT), gy = new Float64Array(nT), gr = new Float64Array(nT);
-  const inside = new Uint8Array(nT);
+  const probe = mode !== "sparse" ? region() : undefined;
   for (let t = 0; t < nT; t++) {
+    if (mode === "sparse" && !inside[t]) continue;
     const a = triangles[3 * t], b = triangles[3 * t + 1], c = triangles[3 * t + 2];
-    const ax = xs[a], ay = ys[a];
-    const bx = xs[b] - ax, by = ys[b] - ay, cx = xs[c] - ax, cy = ys[c] - ay;
+    const ax = S.x[a], ay = S.y[a];
+    const bx = S.x[b] - ax, by = S.y[b] - ay, cx = S.x[c] - ax, cy = S.y[c] - ay;
     const d = 2 * (bx * cy - by * cx);
-    if (Math.abs(d) < 1e-300) continue;
+    if (Math.abs(d) < 1e-300) {
+      inside[t] = 0;
+      continue;
+    }
     const b2 = bx * bx + by * by, c2 = cx * cx + cy * cy;
     const ux = (cy * b2 - by * c2) / d, uy = (bx * c2 - cx * b2) / d;
     gx[t] = ax + ux;
     gy[t] = ay + uy;
     gr[t] = Math.hypot(ux, uy);
-    inside[t] = region.contains(gx[t], gy[t]) ? 1 : 0;
+    if (probe) inside[t] = probe.contains(gx[t], gy[t]) ? 1 : 0;
   }
-  // Voronoi edges between inside circumcentres whose generating samples are far apart along the wall
-  // (neighbouring samples on one wall give the spokes towards that wall, not the axis).
-  const adj: number[][] = new Array(nT);
+  // Voronoi edges between inside vertices whose generating samples are on different walls: neighbouring samples
+  // on one wall give the spokes towards that wall, not the axis.
   const minGap = 2.5 * step;
+  const byIndex = mode !== "overlapping";
+  const axis = new Uint8Array(halfedges.length);
+  const deg = new Uint8Array(nT);
   for (let e = 0; e < halfedges.length; e++) {
     const o = halfedges[e];
     if (o < e) continue;
     const t1 = (e / 3) | 0, t2 = (o / 3) | 0;
     if (!inside[t1] || !inside[t2]) continue;
-    const p = triangles[e], q = triangles[e % 3 === 2 ? e - 2 : e + 1];
-    if (ringOf[p] === ringOf[q]) {
-      const per = perimOf[ringOf[p]];
-      const d = Math.abs(posOf[p] - posOf[q]);
+    const p = triangles[e], q = triangles[nextHalfedge(e)];
+    const r = S.ring[p];
+    if (r === S.ring[q]) {
+      const dk = Math.abs(S.k[p] - S.k[q]);
+      if (byIndex && (dk === 1 || dk === S.ringCount[r] - 1)) continue;
+      const per = S.perim[r];
+      const d = Math.abs(S.pos[p] - S.pos[q]);
       if (Math.min(d, per - d) < minGap) continue;
     }
-    (adj[t1] ??= []).push(t2);
-    (adj[t2] ??= []).push(t1);
+    axis[e] = axis[o] = 1;
+    deg[t1]++;
+    deg[t2]++;
   }
-  const g: Graph = { x: gx, y: gy, r: gr, adj, alive: new Uint8Array(nT), verts: [] };
-  for (let t = 0; t < nT; t++) if (adj[t] !== undefined) {
-    g.alive[t] = 1;
-    g.verts.push(t);
-  }
-  const regions = countComponents(g);
-  const pruneMin = prune(g, step);
-  contractShort(g, step);
-  const branches = listBranches(g);
-  const paths: CentrelinePath[] = [];
-  let minR = Infinity;
-  for (const br of branches) {
-    const pts: [number, number][] = br.map((v) => [g.x[v], g.y[v]]);
-    const keep = simplifyMask(pts, step / 4);
-    const rOf = (k: number) => branchRadius(g, wallGrid, br, pts, k, step);
-    const radii = new Map<number, number>();
-    const radius = (k: number) => {
-      let r = radii.get(k);
-      if (r === undefined) radii.set(k, (r = rOf(k)));
-      return r;
-    };
-    // Widths between kept points: bisect along the branch's own vertices (they lie on the axis) while the
-    // width at the middle departs from the straight interpolation by more than 0.5 %.
-    const kept: number[] = [];
-    keep.forEach((on, k) => on && kept.push(k));
-    const stack: [number, number][] = [];
-    for (let i = kept.length - 2; i >= 0; i--) stack.push([kept[i], kept[i + 1]]);
-    while (stack.length) {
-      const [a, b] = stack.pop()!;
-      if (b - a < 2) continue;
-      const m = (a + b) >> 1;
-      const ra = radius(a), rb = radius(b), rm = radius(m);
-      const lin = ra + ((rb - ra) * (m - a)) / (b - a);
-      if (Math.abs(rm - lin) > 0.005 * Math.max(rm, lin)) {
-        keep[m] = 1;
-        stack.push([m, b], [a, m]);
+  const project = mode !== "overlapping";
+  let projector: Projector | null = null;
+  // The two edges a vertex lies between when its samples are on just two edges (else -1).
+  const sigLo = new Int32Array(nT).fill(-1), sigHi = new Int32Array(nT).fill(-1);
+  if (project) {
+    // Newton starts from the circumcentre; with sparse samples that may lie beyond a wall (it strays s²/8w from
+    // the midline), which signed distances handle.
+    const pr = new Projector(S, ed.edges, ed.ringOfEdge, ed.ringEdgeStart);
+    for (let t = 0; t < nT; t++) {
+      if (!deg[t]) continue;
+      const a = triangles[3 * t], b = triangles[3 * t + 1], c = triangles[3 * t + 2];
+      // Straight stretches: all three samples inside edges, on two edges only (a channel between two walls).
+      if (S.e1[a] < 0 && S.e1[b] < 0 && S.e1[c] < 0) {
+        const ea = S.e0[a], eb = S.e0[b], ec = S.e0[c];
+        const lo = Math.min(ea, eb, ec), hi = Math.max(ea, eb, ec);
+        if (lo !== hi && (ea === lo || ea === hi) && (eb === lo || eb === hi) && (ec === lo || ec === hi)) {
+          sigLo[t] = lo;
+          sigHi[t] = hi;
+        }
+      }
+      pr.wallsOf(a, b, c);
+      if (pr.solve(gx[t], gy[t], gx[t], gy[t], gr[t])) {
+        gx[t] = pr.x;
+        gy[t] = pr.y;
+        gr[t] = pr.r;
+      } else if (mode === "sparse") {
+        // Not settled: the triangle's centroid, which is inside the region (its circumcentre may not be).
+        gx[t] = (S.x[a] + S.x[b] + S.x[c]) / 3;
+        gy[t] = (S.y[a] + S.y[b] + S.y[c]) / 3;
+        gr[t] = Math.abs(pr.nearest(gx[t], gy[t]));
       }
     }
-    // Points closer than half a step would make pieces shorter than the network's snap tolerance: skip them.
-    const points: [number, number][] = [];
-    const rs: number[] = [];
-    const last = pts.length - 1;
-    keep.forEach((on, k) => {
-      if (!on) return;
-      const prev = points.at(-1);
-      if (prev && k !== last && Math.hypot(pts[k][0] - prev[0], pts[k][1] - prev[1]) < step / 2) return;
-      if (prev && k === last && points.length > 1 && Math.hypot(pts[k][0] - prev[0], pts[k][1] - prev[1]) < step / 2) {
-        points.pop();
-        rs.pop();
-      }
-      points.push(pts[k]);
-      rs.push(radius(k));
-    });
-    for (const r of rs) minR = Math.min(minR, r);
-    paths.push({ points, radii: rs });
+    projector = pr;
   }
-  extendLeaves(g, branches, paths, region, step);
-  const holes = region.depth.filter((d) => d % 2 === 1).length;
-  return {
-    paths,
-    stepUnits: step,
-    pruneLengthUnits: PRUNE_FACTOR * (Number.isFinite(pruneMin) ? pruneMin : minR),
-    minWidthUnits: Number.isFinite(minR) ? 2 * minR : 0,
-    regions,
-    holes,
-    notes: [],
+
+  const dist = (t: number, u: number) => Math.hypot(gx[u] - gx[t], gy[u] - gy[t]);
+  // Chains between vertices of degree ≠ 2 (and one per loop without such a vertex).
+  const branches: Branch[] = [];
+  const nodeOf = new Int32Array(nT).fill(-1);
+  const nodeTri: number[] = [];
+  const nodeDeg: number[] = [];
+  const nodeBr: number[][] = [];
+  const nodeFor = (t: number) => {
+    if (nodeOf[t] < 0) {
+      nodeOf[t] = nodeTri.length;
+      nodeTri.push(t);
+      nodeDeg.push(0);
+      nodeBr.push([]);
+    }
+    return nodeOf[t];
   };
-}
-
-const liveDegree = (g: Graph, v: number) => {
-  let d = 0;
-  for (const u of g.adj[v]) if (g.alive[u]) d++;
-  return d;
-};
-
-function countComponents(g: Graph): number {
-  const seen = new Uint8Array(g.alive.length);
-  let count = 0;
-  const stack: number[] = [];
-  for (const v of g.verts) {
-    if (!g.alive[v] || seen[v]) continue;
-    count++;
-    seen[v] = 1;
-    stack.push(v);
-    while (stack.length) {
-      const u = stack.pop()!;
-      for (const w of g.adj[u]) if (g.alive[w] && !seen[w]) {
-        seen[w] = 1;
-        stack.push(w);
-      }
+  const addBranch = (v: number[], len: number) => {
+    const a = nodeFor(v[0]), b = nodeFor(v[v.length - 1]);
+    const i = branches.length;
+    branches.push({ v, a, b, len, alive: true });
+    nodeBr[a].push(i);
+    nodeBr[b].push(i);
+    nodeDeg[a]++;
+    nodeDeg[b]++;
+  };
+  const used = new Uint8Array(halfedges.length);
+  const walkFrom = (t: number, e0: number) => {
+    const v = [t];
+    let len = 0;
+    let e = e0;
+    for (;;) {
+      used[e] = 1;
+      const o = halfedges[e];
+      used[o] = 1;
+      const u = (o / 3) | 0;
+      len += dist(v[v.length - 1], u);
+      v.push(u);
+      if (deg[u] !== 2 || u === t) break;
+      e = -1;
+      for (let f = 3 * u; f < 3 * u + 3; f++) if (f !== o && axis[f]) { e = f; break; }
     }
+    addBranch(v, len);
+  };
+  for (let t = 0; t < nT; t++) {
+    if (!deg[t] || deg[t] === 2) continue;
+    for (let e = 3 * t; e < 3 * t + 3; e++) if (axis[e] && !used[e]) walkFrom(t, e);
   }
-  return count;
-}
-
-/** Walk from `from` through `first` along degree-2 vertices; returns the vertices including both ends. */
-function walk(g: Graph, from: number, first: number): number[] {
-  const out = [from, first];
-  let prev = from, cur = first;
-  while (liveDegree(g, cur) === 2) {
-    let next = -1;
-    for (const u of g.adj[cur]) if (g.alive[u] && u !== prev) { next = u; break; }
-    if (next === -1 || next === from) break;
-    out.push(next);
-    prev = cur;
-    cur = next;
+  for (let t = 0; t < nT; t++) {
+    if (deg[t] !== 2) continue;
+    for (let e = 3 * t; e < 3 * t + 3; e++) if (axis[e] && !used[e]) walkFrom(t, e);
   }
-  return out;
-}
+  const regions = countComponents(branches, nodeTri.length);
 
-const pathLength = (g: Graph, vs: number[]) => {
-  let s = 0;
-  for (let i = 1; i < vs.length; i++) s += Math.hypot(g.x[vs[i]] - g.x[vs[i - 1]], g.y[vs[i]] - g.y[vs[i - 1]]);
-  return s;
-};
+  const other = (br: Branch, nd: number) => (br.a === nd ? br.b : br.a);
+  const kill = (i: number) => {
+    const br = branches[i];
+    br.alive = false;
+    nodeDeg[br.a]--;
+    nodeDeg[br.b]--;
+  };
+  /** A node left with two branches is no junction: join them into one. */
+  const fuse = (nd: number) => {
+    if (nodeDeg[nd] !== 2) return;
+    const live = nodeBr[nd].filter((i) => branches[i].alive);
+    if (live.length !== 2 || live[0] === live[1]) return;
+    const [i1, i2] = live;
+    const b1 = branches[i1], b2 = branches[i2];
+    const v1 = b1.b === nd ? b1.v : b1.v.slice().reverse();
+    const v2 = b2.a === nd ? b2.v : b2.v.slice().reverse();
+    const from = other(b1, nd), to = other(b2, nd);
+    b1.alive = b2.alive = false;
+    nodeDeg[nd] = 0;
+    nodeBr[nd] = [];
+    const i = branches.length;
+    branches.push({ v: v1.concat(v2.slice(1)), a: from, b: to, len: b1.len + b2.len, alive: true });
+    for (const end of [from, to]) {
+      const list = nodeBr[end];
+      for (let k = 0; k < list.length; k++) if (list[k] === i1 || list[k] === i2) { list[k] = i; break; }
+    }
+  };
 
-/** Remove leaf branches shorter than PRUNE_FACTOR × their junction's radius, until none is left; returns the smallest junction radius that pruned. */
-function prune(g: Graph, step: number): number {
-  let minJunctionR = Infinity;
+  // Spurs: leaf branches shorter than PRUNE_FACTOR × their junction's radius, until none is left. Every spur of
+  // a round is decided first and removed together: removing one at a time would let its sibling spur merge into
+  // the channel before being looked at.
+  let pruneMin = Infinity;
   for (let round = 0; round < 50; round++) {
-    // Decide every spur of the round first, then remove them together: removing one at a time would let
-    // its sibling spur merge into the channel before being looked at.
-    const doomed: number[][] = [];
-    for (const v of g.verts) {
-      if (!g.alive[v] || liveDegree(g, v) !== 1) continue;
-      const first = g.adj[v].find((u) => g.alive[u])!;
-      const br = walk(g, v, first);
-      const end = br.at(-1)!;
-      if (liveDegree(g, end) < 3) continue;
-      if (pathLength(g, br) < PRUNE_FACTOR * g.r[end] + step) {
-        doomed.push(br);
-        minJunctionR = Math.min(minJunctionR, g.r[end]);
+    const doomed: number[] = [];
+    for (let i = 0; i < branches.length; i++) {
+      const br = branches[i];
+      if (!br.alive || br.a === br.b) continue;
+      const da = nodeDeg[br.a], db = nodeDeg[br.b];
+      const end = da === 1 && db >= 3 ? br.b : db === 1 && da >= 3 ? br.a : -1;
+      if (end < 0) continue;
+      const rEnd = gr[nodeTri[end]];
+      if (br.len < PRUNE_FACTOR * rEnd + step) {
+        doomed.push(i);
+        pruneMin = Math.min(pruneMin, rEnd);
       }
     }
-    for (const br of doomed) for (let i = 0; i < br.length - 1; i++) g.alive[br[i]] = 0;
     if (doomed.length === 0) break;
+    const touched: number[] = [];
+    for (const i of doomed) {
+      kill(i);
+      touched.push(branches[i].a, branches[i].b);
+    }
+    for (const nd of touched) fuse(nd);
   }
-  return minJunctionR;
-}
 
-/** Merge junctions joined by a branch shorter than two sampling steps (a junction the Voronoi diagram split in two). */
-function contractShort(g: Graph, step: number): void {
+  // Junctions joined by a branch shorter than two sampling steps are one junction the Voronoi diagram split:
+  // the first moves to the branch's middle and takes over the other's branches.
+  const order = nodeTri.map((_, i) => i).sort((p, q) => nodeTri[p] - nodeTri[q]);
+  const chainLength = (v: number[]) => {
+    let s = 0;
+    for (let k = 1; k < v.length; k++) s += dist(v[k - 1], v[k]);
+    return s;
+  };
   for (let round = 0; round < 10; round++) {
     let merged = 0;
-    for (const v of g.verts) {
-      if (!g.alive[v] || liveDegree(g, v) < 3) continue;
-      for (const u of g.adj[v]) {
-        if (!g.alive[u] || !g.alive[v]) continue;
-        const br = walk(g, v, u);
-        const end = br.at(-1)!;
-        if (end === v || liveDegree(g, end) < 3 || pathLength(g, br) >= 2 * step) continue;
-        // Fold the short branch into v: v moves to the branch's middle and takes over end's other neighbours.
-        const mid = br[(br.length / 2) | 0];
-        g.x[v] = g.x[mid];
-        g.y[v] = g.y[mid];
-        g.r[v] = Math.max(g.r[v], g.r[end]);
-        for (let i = 1; i < br.length; i++) g.alive[br[i]] = 0;
-        for (const w of g.adj[end]) {
-          if (!g.alive[w] || w === v) continue;
-          g.adj[w] = g.adj[w].map((x) => (x === end ? v : x)).filter((x, i, a) => a.indexOf(x) === i);
-          g.adj[v].push(w);
+    for (const nd of order) {
+      if (nodeDeg[nd] < 3) continue;
+      for (const i of nodeBr[nd]) {
+        const br = branches[i];
+        if (!br.alive) continue;
+        const u = other(br, nd);
+        if (u === nd || nodeDeg[u] < 3 || br.len >= 2 * step) continue;
+        const vs = br.a === nd ? br.v : br.v.slice().reverse();
+        const mid = vs[(vs.length / 2) | 0];
+        const tn = nodeTri[nd], tu = nodeTri[u];
+        gx[tn] = gx[mid];
+        gy[tn] = gy[mid];
+        gr[tn] = Math.max(gr[tn], gr[tu]);
+        kill(i);
+        for (const j of nodeBr[u]) {
+          const bj = branches[j];
+          if (!bj.alive) continue;
+          if (bj.a === u) {
+            bj.a = nd;
+            bj.v[0] = tn;
+            nodeDeg[nd]++;
+            nodeBr[nd].push(j);
+          }
+          if (bj.b === u) {
+            bj.b = nd;
+            bj.v[bj.v.length - 1] = tn;
+            nodeDeg[nd]++;
+            nodeBr[nd].push(j);
+          }
         }
-        g.adj[v] = g.adj[v].filter((w, i, a) => g.alive[w] && a.indexOf(w) === i);
+        nodeDeg[u] = 0;
+        nodeBr[u] = [];
+        for (const j of nodeBr[nd]) if (branches[j].alive) branches[j].len = chainLength(branches[j].v);
         merged++;
         break;
       }
     }
     if (merged === 0) break;
   }
+  for (let nd = 0; nd < nodeTri.length; nd++) fuse(nd);
+
+  const builder = new PathBuilder(gx, gy, gr, walls, step, projector, sigLo, sigHi, triangles);
+  const paths: CentrelinePath[] = [];
+  const leafEnds: [boolean, boolean][] = [];
+  let minR = Infinity;
+  for (const br of branches) {
+    if (!br.alive) continue;
+    const path = builder.build(br.v, nodeDeg[br.a] === 1, nodeDeg[br.b] === 1);
+    for (const r of path.radii) minR = Math.min(minR, r);
+    paths.push(path);
+    leafEnds.push([nodeDeg[br.a] === 1, nodeDeg[br.b] === 1]);
+  }
+  extendLeaves(paths, leafEnds, region, step);
+  const holes = prep.depth.filter((d) => d % 2 === 1).length;
+  const notes: string[] = [];
+  if (mode === "sparse") {
+    notes.push(`Along straight walls the boundary was sampled up to ${fmt(maxSpacing)} drawing units apart, the centreline put on the walls' exact bisectors.`);
+  }
+  return {
+    paths,
+    stepUnits: step,
+    maxSpacingUnits: maxSpacing,
+    pruneLengthUnits: PRUNE_FACTOR * (Number.isFinite(pruneMin) ? pruneMin : minR),
+    minWidthUnits: Number.isFinite(minR) ? 2 * minR : 0,
+    regions,
+    holes,
+    notes,
+  };
 }
 
-/** Branches between vertices of degree ≠ 2 (and one per loop without such a vertex). */
-function listBranches(g: Graph): number[][] {
-  const out: number[][] = [];
-  const usedEdge = new Set<number>();
-  const n = g.alive.length;
-  const key = (a: number, b: number) => (a < b ? a * n + b : b * n + a);
-  const take = (from: number, first: number) => {
-    if (usedEdge.has(key(from, first))) return;
-    const br = walk(g, from, first);
-    for (let i = 1; i < br.length; i++) usedEdge.add(key(br[i - 1], br[i]));
-    out.push(br);
+const fmt = (x: number) => String(Number(x.toPrecision(6)));
+
+/** Connected pieces of the axis: nodes joined by branches (union-find), loops without a node counted by their own node. */
+function countComponents(branches: Branch[], nNodes: number): number {
+  const parent = Int32Array.from({ length: nNodes }, (_, i) => i);
+  const find = (i: number): number => {
+    while (parent[i] !== i) i = parent[i] = parent[parent[i]];
+    return i;
   };
-  for (const v of g.verts) {
-    if (!g.alive[v] || liveDegree(g, v) === 2) continue;
-    for (const u of g.adj[v]) if (g.alive[u]) take(v, u);
-  }
-  for (const v of g.verts) {
-    if (!g.alive[v] || liveDegree(g, v) !== 2) continue;
-    for (const u of g.adj[v]) if (g.alive[u] && !usedEdge.has(key(v, u))) {
-      const br = walk(g, v, u);
-      if (br.at(-1) !== v) br.push(v);
-      for (let i = 1; i < br.length; i++) usedEdge.add(key(br[i - 1], br[i]));
-      out.push(br);
-    }
-  }
-  return out;
+  for (const br of branches) parent[find(br.a)] = find(br.b);
+  let count = 0;
+  for (let i = 0; i < nNodes; i++) if (find(i) === i) count++;
+  return count;
 }
 
 /** Douglas–Peucker simplification (iterative, keeps the ends): which points to keep. Own code: a dozen lines. */
@@ -388,43 +884,179 @@ export function simplifyMask(pts: [number, number][], tol: number): Uint8Array {
   return keep;
 }
 
-/** Half-width at vertex k of a branch: the exact wall distance; at a dead end, measured one radius further in (the end wall is nearer there). */
-function branchRadius(g: Graph, walls: WallGrid, br: number[], pts: [number, number][], k: number, step: number): number {
-  const v = br[k];
-  const rv = g.r[v];
-  const [x, y] = pts[k];
-  if ((k === 0 || k === br.length - 1) && liveDegree(g, v) === 1 && br.length >= 2) {
-    // Walk inwards along the branch by one radius.
-    const dir = k === 0 ? 1 : -1;
-    let walked = 0;
-    let j = k;
-    while (j + dir >= 0 && j + dir < br.length && walked < rv) {
-      walked += Math.hypot(pts[j + dir][0] - pts[j][0], pts[j + dir][1] - pts[j][1]);
-      j += dir;
-    }
-    const d1 = walls.distance(pts[j][0], pts[j][1], rv * 1.5 + step);
-    // And as far again, to carry a taper's slope out to the end (linear extrapolation).
-    const s1 = walked;
-    while (j + dir >= 0 && j + dir < br.length && walked < 2 * s1) {
-      walked += Math.hypot(pts[j + dir][0] - pts[j][0], pts[j + dir][1] - pts[j][1]);
-      j += dir;
-    }
-    const d2 = walls.distance(pts[j][0], pts[j][1], rv * 1.5 + step);
-    if (!Number.isFinite(d1)) return rv;
-    if (!Number.isFinite(d2) || walked <= s1 || Math.abs(d2 - d1) > 0.2 * d1) return d1;
-    return Math.max(0, d1 + ((d1 - d2) * s1) / (walked - s1));
+/**
+ * Branches as centreline paths: the chain's shape within a quarter step and its width within WIDTH_TOLERANCE,
+ * both decided together (Douglas–Peucker on position and radius) on candidate points: the chain's vertices,
+ * and midpoints of chain edges along which the axis or its radius bends. With sparse samples (a projector) the
+ * midpoints are put on the walls' exact bisector; the radii of the points kept come from the exact wall distance.
+ */
+class PathBuilder {
+  private readonly cx: number[] = [];
+  private readonly cy: number[] = [];
+  private readonly cr: number[] = [];
+  private readonly cs: number[] = [];
+  private t0 = 0;
+  private t1 = 0;
+
+  constructor(
+    private readonly gx: Float64Array,
+    private readonly gy: Float64Array,
+    private readonly gr: Float64Array,
+    private readonly walls: WallGrid,
+    private readonly step: number,
+    private readonly projector: Projector | null,
+    private readonly sigLo: Int32Array,
+    private readonly sigHi: Int32Array,
+    private readonly triangles: Uint32Array | Int32Array,
+  ) {}
+
+  /** Exact wall distance near a radius guess (the guess when no wall is that near). */
+  private wall(x: number, y: number, guess: number): number {
+    const d = this.walls.distance(x, y, guess * 1.5 + this.step);
+    return Number.isFinite(d) ? d : guess;
   }
-  const d = walls.distance(x, y, rv * 1.5 + step);
-  return Number.isFinite(d) ? d : rv;
+
+  /** Candidates strictly between (xa, ya) and (xb, yb) on chain edge t0–t1, in order, a few levels deep. */
+  private sub(xa: number, ya: number, ra: number, xb: number, yb: number, rb: number, depth: number): void {
+    const step = this.step;
+    if (depth > 6 || Math.hypot(xb - xa, yb - ya) <= step) return;
+    const t0 = this.t0, t1 = this.t1;
+    const hx = (xa + xb) / 2, hy = (ya + yb) / 2;
+    let xm = hx, ym = hy, rm: number;
+    const pr = this.projector;
+    if (pr) {
+      // Between the same two edges the axis is straight and its radius linear: the chord is the axis.
+      if (this.sigLo[t0] >= 0 && this.sigLo[t0] === this.sigLo[t1] && this.sigHi[t0] === this.sigHi[t1]) return;
+      const T = this.triangles;
+      if (pr.sharedWalls(T[3 * t0], T[3 * t0 + 1], T[3 * t0 + 2], T[3 * t1], T[3 * t1 + 1], T[3 * t1 + 2]) >= 2 && pr.solve(hx, hy, hx, hy, Math.max(ra, rb))) {
+        xm = pr.x;
+        ym = pr.y;
+        rm = pr.r;
+      } else rm = this.wall(hx, hy, Math.max(ra, rb));
+    } else rm = this.wall(hx, hy, Math.max(ra, rb));
+    const lin = (ra + rb) / 2;
+    if (Math.abs(rm - lin) <= 0.5 * WIDTH_TOLERANCE * Math.max(rm, lin) && Math.hypot(xm - hx, ym - hy) <= step / 8) return;
+    this.sub(xa, ya, ra, xm, ym, rm, depth + 1);
+    this.cx.push(xm);
+    this.cy.push(ym);
+    this.cr.push(rm);
+    this.sub(xm, ym, rm, xb, yb, rb, depth + 1);
+  }
+
+  /** The path of a chain of vertices; leafA / leafB: that end is a dead end. */
+  build(v: number[], leafA: boolean, leafB: boolean): CentrelinePath {
+    const { gx, gy, gr, step, cx, cy, cr, cs } = this;
+    cx.length = cy.length = cr.length = cs.length = 0;
+    const m = v.length;
+    // Vertex radii are exact where projected; the ends (junctions, possibly moved) are measured.
+    const radiusAt = (k: number) => (this.projector && k > 0 && k < m - 1 ? gr[v[k]] : this.wall(gx[v[k]], gy[v[k]], gr[v[k]]));
+    let rPrev = radiusAt(0);
+    cx.push(gx[v[0]]);
+    cy.push(gy[v[0]]);
+    cr.push(rPrev);
+    for (let k = 1; k < m; k++) {
+      this.t0 = v[k - 1];
+      this.t1 = v[k];
+      const r1 = radiusAt(k);
+      this.sub(gx[this.t0], gy[this.t0], rPrev, gx[this.t1], gy[this.t1], r1, 0);
+      cx.push(gx[this.t1]);
+      cy.push(gy[this.t1]);
+      cr.push(r1);
+      rPrev = r1;
+    }
+    const nC = cx.length;
+    for (let k = 0; k < nC; k++) cs.push(k === 0 ? 0 : cs[k - 1] + Math.hypot(cx[k] - cx[k - 1], cy[k] - cy[k - 1]));
+    // Keep points where either the shape (a quarter step) or the width (WIDTH_TOLERANCE) is off otherwise.
+    const keep = new Uint8Array(nC);
+    keep[0] = keep[nC - 1] = 1;
+    const geomTol = step / 4;
+    const stack: number[] = nC > 2 ? [0, nC - 1] : [];
+    while (stack.length) {
+      const j = stack.pop()!, i = stack.pop()!;
+      const ax = cx[i], ay = cy[i], bx = cx[j], by = cy[j];
+      const l = Math.hypot(bx - ax, by - ay);
+      const span = cs[j] - cs[i];
+      let best = -1, worst = 1;
+      for (let k = i + 1; k < j; k++) {
+        const dGeom = l === 0 ? Math.hypot(cx[k] - ax, cy[k] - ay) : Math.abs((bx - ax) * (cy[k] - ay) - (by - ay) * (cx[k] - ax)) / l;
+        const lin = span > 0 ? cr[i] + ((cr[j] - cr[i]) * (cs[k] - cs[i])) / span : cr[i];
+        const bad = Math.max(dGeom / geomTol, Math.abs(cr[k] - lin) / (WIDTH_TOLERANCE * Math.max(cr[k], lin)));
+        if (bad > worst) {
+          worst = bad;
+          best = k;
+        }
+      }
+      if (best >= 0) {
+        keep[best] = 1;
+        stack.push(i, best, best, j);
+      }
+    }
+    // Points closer than half a step would make pieces shorter than the network's snap tolerance: skip them.
+    const points: [number, number][] = [];
+    const ks: number[] = [];
+    for (let k = 0; k < nC; k++) {
+      if (!keep[k]) continue;
+      const prev = points.at(-1);
+      const near = prev !== undefined && Math.hypot(cx[k] - prev[0], cy[k] - prev[1]) < step / 2;
+      if (near && k !== nC - 1) continue;
+      if (near && points.length > 1) {
+        points.pop();
+        ks.pop();
+      }
+      points.push([cx[k], cy[k]]);
+      ks.push(k);
+    }
+    const radii: number[] = [];
+    for (let i = 0; i < ks.length; i++) {
+      const k = ks[i];
+      const last = i === ks.length - 1;
+      if ((i === 0 && leafA) || (last && leafB)) radii.push(this.leafRadius(i === 0, k));
+      else radii.push(this.projector ? this.wall(cx[k], cy[k], cr[k]) : cr[k]);
+    }
+    return { points, radii };
+  }
+
+  /** Point at distance d inwards along the candidates from one end, or null past the other end. */
+  private inward(atStart: boolean, d: number): [number, number] | null {
+    const { cx, cy, cs } = this;
+    const nC = cs.length;
+    const total = cs[nC - 1];
+    if (d > total) return null;
+    const target = atStart ? d : total - d;
+    let lo = 0, hi = nC - 1;
+    while (hi - lo > 1) {
+      const mid = (lo + hi) >> 1;
+      if (cs[mid] <= target) lo = mid;
+      else hi = mid;
+    }
+    const span = cs[hi] - cs[lo];
+    const f = span > 0 ? (target - cs[lo]) / span : 0;
+    return [cx[lo] + (cx[hi] - cx[lo]) * f, cy[lo] + (cy[hi] - cy[lo]) * f];
+  }
+
+  /**
+   * Half-width at a dead end: the axis there stops one radius short of the end wall, which is nearer than the
+   * side walls; measured one radius further in, and as far again to carry a taper's slope out to the end.
+   */
+  private leafRadius(atStart: boolean, kEnd: number): number {
+    const rv = this.cr[kEnd];
+    const reach = rv * 1.5 + this.step;
+    const p1 = this.inward(atStart, rv);
+    if (!p1) return rv;
+    const d1 = this.walls.distance(p1[0], p1[1], reach);
+    if (!Number.isFinite(d1)) return rv;
+    const p2 = this.inward(atStart, 2 * rv);
+    const d2 = p2 ? this.walls.distance(p2[0], p2[1], reach) : Infinity;
+    if (!Number.isFinite(d2) || Math.abs(d2 - d1) > 0.2 * d1) return d1;
+    return Math.max(0, d1 + (d1 - d2));
+  }
 }
 
 /** Dead ends: the axis stops one radius short of a flat or round end wall; extend it there along its last direction. */
-function extendLeaves(g: Graph, branches: number[][], paths: CentrelinePath[], region: Region, step: number): void {
-  branches.forEach((br, i) => {
-    const p = paths[i];
+function extendLeaves(paths: CentrelinePath[], leafEnds: [boolean, boolean][], region: () => Region, step: number): void {
+  paths.forEach((p, i) => {
     for (const atEnd of [false, true]) {
-      const v = atEnd ? br.at(-1)! : br[0];
-      if (liveDegree(g, v) !== 1 || p.points.length < 2) continue;
+      if (!leafEnds[i][atEnd ? 1 : 0] || p.points.length < 2) continue;
       const k = atEnd ? p.points.length - 1 : 0;
       const kPrev = atEnd ? k - 1 : 1;
       const [x, y] = p.points[k];
@@ -434,12 +1066,13 @@ function extendLeaves(g: Graph, branches: number[][], paths: CentrelinePath[], r
       const r = p.radii[k];
       let ux = (x - px) / l, uy = (y - py) / l;
       // Stop at the wall if it is nearer than one radius straight ahead.
+      const reg = region();
       let reach = r;
-      if (!region.contains(x + ux * reach, y + uy * reach)) {
+      if (!reg.contains(x + ux * reach, y + uy * reach)) {
         let lo = 0, hi = r;
         for (let it = 0; it < 40; it++) {
           const mid = (lo + hi) / 2;
-          if (region.contains(x + ux * mid, y + uy * mid)) lo = mid;
+          if (reg.contains(x + ux * mid, y + uy * mid)) lo = mid;
           else hi = mid;
         }
         reach = lo;

@@ -89,6 +89,30 @@ export function filledArea(rings: Ring[]): number {
   return clean.reduce((acc, r, i) => acc + (depth[i] % 2 === 0 ? 1 : -1) * Math.abs(signedArea(r)), 0);
 }
 
+/** Rings cleaned and oriented so the filled side is on the left of every edge, with their containment depths. */
+export interface OrientedRings {
+  rings: Ring[];
+  /** Containment depth of each ring: even = outer boundary of filled area, odd = hole. */
+  depth: number[];
+}
+
+/** Clean the rings, find how deeply each is nested and orient each so the filled side is on its left. */
+export function orientRings(rings: Ring[]): OrientedRings {
+  const clean = cleanRings(rings);
+  const depth = nestingDepths(clean);
+  const oriented = clean.map((r, i) => {
+    const ccw = signedArea(r) > 0;
+    const wantCcw = depth[i] % 2 === 0;
+    return ccw === wantCcw ? r : r.slice().reverse();
+  });
+  return { rings: oriented, depth };
+}
+
+/** Filled area of oriented rings (each ring's signed area is positive for filled, negative for holes), square drawing units. */
+export function orientedArea(o: OrientedRings): number {
+  return o.rings.reduce((acc, r) => acc + signedArea(r), 0);
+}
+
 export class Region {
   /** Rings oriented so the filled side is on the left of every edge. */
   readonly rings: Ring[];
@@ -114,15 +138,11 @@ export class Region {
   /**
    * @param rings closed rings in drawing units (closing point optional), any orientation.
    * @param cellSize grid cell edge in drawing units (about the sampling step × 4 is a good choice).
+   * @param prepared the same rings already through orientRings (saves cleaning and nesting them again).
    */
-  constructor(rings: Ring[], cellSize: number) {
-    const clean = cleanRings(rings);
-    const depth = nestingDepths(clean);
-    this.rings = clean.map((r, i) => {
-      const ccw = signedArea(r) > 0;
-      const wantCcw = depth[i] % 2 === 0;
-      return ccw === wantCcw ? r : r.slice().reverse();
-    });
+  constructor(rings: Ring[], cellSize: number, prepared?: OrientedRings) {
+    const { rings: oriented, depth } = prepared ?? orientRings(rings);
+    this.rings = oriented;
     this.depth = depth;
     let nE = 0;
     for (const r of this.rings) nE += r.length;
@@ -224,16 +244,39 @@ export class Region {
 
 /** Distance from a point to a segment (plane geometry). */
 export function segDist(px: number, py: number, ax: number, ay: number, bx: number, by: number): number {
+  return Math.sqrt(segDist2(px, py, ax, ay, bx, by));
+}
+
+/** Squared distance from a point to a segment (plane geometry). */
+export function segDist2(px: number, py: number, ax: number, ay: number, bx: number, by: number): number {
   const dx = bx - ax;
   const dy = by - ay;
   const l2 = dx * dx + dy * dy;
   let t = l2 === 0 ? 0 : ((px - ax) * dx + (py - ay) * dy) / l2;
-  t = Math.max(0, Math.min(1, t));
-  return Math.hypot(px - (ax + t * dx), py - (ay + t * dy));
+  t = t < 0 ? 0 : t > 1 ? 1 : t;
+  const ex = px - (ax + t * dx);
+  const ey = py - (ay + t * dy);
+  return ex * ex + ey * ey;
+}
+
+/** True when closed segments AB and CD share a point (orientation tests; touching and collinear overlap count). */
+export function segmentsMeet(ax: number, ay: number, bx: number, by: number, cx: number, cy: number, dx: number, dy: number): boolean {
+  const d1 = orient(cx, cy, dx, dy, ax, ay);
+  const d2 = orient(cx, cy, dx, dy, bx, by);
+  const d3 = orient(ax, ay, bx, by, cx, cy);
+  const d4 = orient(ax, ay, bx, by, dx, dy);
+  if (((d1 > 0 && d2 < 0) || (d1 < 0 && d2 > 0)) && ((d3 > 0 && d4 < 0) || (d3 < 0 && d4 > 0))) return true;
+  const within = (px: number, py: number, qx: number, qy: number, rx: number, ry: number) =>
+    Math.min(px, qx) <= rx && rx <= Math.max(px, qx) && Math.min(py, qy) <= ry && ry <= Math.max(py, qy);
+  return (d1 === 0 && within(cx, cy, dx, dy, ax, ay)) || (d2 === 0 && within(cx, cy, dx, dy, bx, by)) ||
+    (d3 === 0 && within(ax, ay, bx, by, cx, cy)) || (d4 === 0 && within(ax, ay, bx, by, dx, dy));
 }
 
 /** Wall segments (4 numbers each, drawing units) in a uniform grid, for nearest-wall distances. */
 export class WallGrid {
+  /** Extent of the segments' bounding box, drawing units. */
+  readonly width: number;
+  readonly height: number;
   private readonly ox: number;
   private readonly oy: number;
   private readonly cell: number;
@@ -249,10 +292,15 @@ export class WallGrid {
   constructor(private readonly segs: Float64Array, cellSize: number) {
     let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
     for (let i = 0; i < segs.length; i += 2) {
-      minX = Math.min(minX, segs[i]); maxX = Math.max(maxX, segs[i]);
-      minY = Math.min(minY, segs[i + 1]); maxY = Math.max(maxY, segs[i + 1]);
+      const x = segs[i], y = segs[i + 1];
+      if (x < minX) minX = x;
+      if (x > maxX) maxX = x;
+      if (y < minY) minY = y;
+      if (y > maxY) maxY = y;
     }
     if (!Number.isFinite(minX)) minX = minY = maxX = maxY = 0;
+    this.width = maxX - minX;
+    this.height = maxY - minY;
     const extent = Math.max(maxX - minX, maxY - minY, 1e-300);
     this.cell = Math.max(cellSize, extent / 2048);
     this.ox = minX - this.cell;
@@ -261,17 +309,20 @@ export class WallGrid {
     this.ny = Math.ceil((maxY - this.oy) / this.cell) + 2;
     const n = segs.length / 4;
     const counts = new Int32Array(this.nx * this.ny + 1);
-    const each = (e: number, f: (c: number) => void) => {
+    for (let e = 0; e < n; e++) {
       const i0 = this.ix(Math.min(segs[4 * e], segs[4 * e + 2])), i1 = this.ix(Math.max(segs[4 * e], segs[4 * e + 2]));
       const j0 = this.iy(Math.min(segs[4 * e + 1], segs[4 * e + 3])), j1 = this.iy(Math.max(segs[4 * e + 1], segs[4 * e + 3]));
-      for (let j = j0; j <= j1; j++) for (let i = i0; i <= i1; i++) f(j * this.nx + i);
-    };
-    for (let e = 0; e < n; e++) each(e, (c) => counts[c + 1]++);
+      for (let j = j0; j <= j1; j++) for (let i = i0; i <= i1; i++) counts[j * this.nx + i + 1]++;
+    }
     for (let c = 0; c + 1 < counts.length; c++) counts[c + 1] += counts[c];
     this.start = counts;
     this.list = new Int32Array(counts[counts.length - 1]);
     const fill = counts.slice(0, counts.length - 1);
-    for (let e = 0; e < n; e++) each(e, (c) => (this.list[fill[c]++] = e));
+    for (let e = 0; e < n; e++) {
+      const i0 = this.ix(Math.min(segs[4 * e], segs[4 * e + 2])), i1 = this.ix(Math.max(segs[4 * e], segs[4 * e + 2]));
+      const j0 = this.iy(Math.min(segs[4 * e + 1], segs[4 * e + 3])), j1 = this.iy(Math.max(segs[4 * e + 1], segs[4 * e + 3]));
+      for (let j = j0; j <= j1; j++) for (let i = i0; i <= i1; i++) this.list[fill[j * this.nx + i]++] = e;
+    }
   }
 
   private ix(x: number): number {
@@ -285,17 +336,41 @@ export class WallGrid {
   distance(x: number, y: number, maxR: number): number {
     const i0 = this.ix(x - maxR), i1 = this.ix(x + maxR), j0 = this.iy(y - maxR), j1 = this.iy(y + maxR);
     const S = this.segs;
-    let best = Infinity;
+    let best = maxR * maxR;
+    let found = false;
     for (let j = j0; j <= j1; j++) {
       for (let i = i0; i <= i1; i++) {
         const c = j * this.nx + i;
         for (let k = this.start[c]; k < this.start[c + 1]; k++) {
           const e = this.list[k];
-          const d = segDist(x, y, S[4 * e], S[4 * e + 1], S[4 * e + 2], S[4 * e + 3]);
-          if (d < best) best = d;
+          const d2 = segDist2(x, y, S[4 * e], S[4 * e + 1], S[4 * e + 2], S[4 * e + 3]);
+          if (d2 <= best) {
+            best = d2;
+            found = true;
+          }
         }
       }
     }
-    return best <= maxR ? best : Infinity;
+    return found ? Math.sqrt(best) : Infinity;
+  }
+
+  /**
+   * True when two segments share a point, leaving out the pairs `skip` allows (e.g. consecutive edges of one
+   * ring meeting at their common vertex).
+   */
+  anyMeeting(skip: (a: number, b: number) => boolean): boolean {
+    const S = this.segs;
+    for (let c = 0; c + 1 < this.start.length; c++) {
+      const k0 = this.start[c], k1 = this.start[c + 1];
+      for (let k = k0; k < k1; k++) {
+        const a = this.list[k];
+        for (let m = k + 1; m < k1; m++) {
+          const b = this.list[m];
+          if (skip(a, b)) continue;
+          if (segmentsMeet(S[4 * a], S[4 * a + 1], S[4 * a + 2], S[4 * a + 3], S[4 * b], S[4 * b + 1], S[4 * b + 2], S[4 * b + 3])) return true;
+        }
+      }
+    }
+    return false;
   }
 }
