@@ -39,10 +39,13 @@ export interface CentrelinePath {
 
 export interface MedialAxisResult {
   paths: CentrelinePath[];
-  /** Boundary sampling step used (at polygon vertices, and everywhere where shapes overlap), drawing units. */
+  /** Boundary sampling: every polygon vertex, and points along each edge at most this far apart, drawing units. */
   stepUnits: number;
-  /** Widest spacing used along straight walls, drawing units (equal to stepUnits where sampled evenly). */
-  maxSpacingUnits: number;
+  /**
+   * Step the axis tolerances scale with (a sixth of the smallest width): spurs, junction merging, shape within
+   * a quarter of it; equal to stepUnits where the boundary is sampled that densely. Drawing units.
+   */
+  toleranceStepUnits: number;
   /** Spur pruning: leaf branches shorter than PRUNE_FACTOR × the junction radius, this at the narrowest junction, drawing units. */
   pruneLengthUnits: number;
   /** Smallest channel width found (twice the smallest inner radius), drawing units. */
@@ -65,7 +68,7 @@ export function extractMedialAxis(rings: Ring[], stepUnits?: number): MedialAxis
   let perimeter = 0;
   for (const r of rings) for (let i = 0; i < r.length; i++) {
     const a = r[i], b = r[(i + 1) % r.length];
-    perimeter += Math.hypot(b[0] - a[0], b[1] - a[1]);
+    perimeter += norm(b[0] - a[0], b[1] - a[1]);
   }
   const prep = orientRings(rings);
   let step = stepUnits;
@@ -105,6 +108,8 @@ interface Samples {
   ringStart: Int32Array;
   ringCount: Int32Array;
   perim: Float64Array;
+  /** The next sample along its ring. */
+  succ: Int32Array;
 }
 
 class SampleBuilder {
@@ -128,7 +133,14 @@ class SampleBuilder {
     this.e1.push(e1);
   }
   build(): Samples {
+    const n = this.x.length;
+    const succ = new Int32Array(n);
+    for (let p = 0; p < n; p++) {
+      const r = this.ring[p];
+      succ[p] = this.k[p] + 1 === this.ringCount[r] ? this.ringStart[r] : p + 1;
+    }
     return {
+      succ,
       n: this.x.length,
       x: Float64Array.from(this.x),
       y: Float64Array.from(this.y),
@@ -175,21 +187,15 @@ function edgesOf(rings: Ring[]): RingEdges {
   return { edges, ringEdgeStart, ringOfEdge };
 }
 
-/** Distances from an edge's start at which it is sampled inside (0 < d < len): `step` from each end, evenly between at most `maxSpacing` apart. */
-function spacingAlong(len: number, step: number, maxSpacing: number, out: number[]): void {
+/** Distances from an edge's start at which it is sampled inside (0 < d < len): evenly, at most `spacing` apart. */
+function spacingAlong(len: number, spacing: number, out: number[]): void {
   out.length = 0;
-  if (maxSpacing <= step || len <= 3 * step) {
-    const n = Math.max(1, Math.ceil(len / step));
-    for (let k = 1; k < n; k++) out.push((len * k) / n);
-    return;
-  }
-  const inner = len - 2 * step;
-  const n = Math.max(1, Math.ceil(inner / maxSpacing));
-  for (let k = 0; k <= n; k++) out.push(step + (inner * k) / n);
+  const n = Math.max(1, Math.ceil(len / spacing));
+  for (let k = 1; k < n; k++) out.push((len * k) / n);
 }
 
-/** Every polygon vertex, and points along each edge (see spacingAlong). */
-function sampleWalls(prep: OrientedRings, ringEdgeStart: Int32Array, step: number, maxSpacing: number): Samples {
+/** Every polygon vertex, and points along each edge at most `spacing` apart. */
+function sampleWalls(prep: OrientedRings, ringEdgeStart: Int32Array, spacing: number): Samples {
   const b = new SampleBuilder();
   const along: number[] = [];
   prep.rings.forEach((ring, ri) => {
@@ -200,9 +206,9 @@ function sampleWalls(prep: OrientedRings, ringEdgeStart: Int32Array, step: numbe
     for (let i = 0; i < m; i++) {
       const [ax, ay] = ring[i];
       const [bx, by] = ring[(i + 1) % m];
-      const len = Math.hypot(bx - ax, by - ay);
+      const len = norm(bx - ax, by - ay);
       b.push(ax, ay, ri, s, base + ((i + m - 1) % m), base + i);
-      spacingAlong(len, step, maxSpacing, along);
+      spacingAlong(len, spacing, along);
       for (const d of along) b.push(ax + ((bx - ax) * d) / len, ay + ((by - ay) * d) / len, ri, s + d, base + i, -1);
       s += len;
     }
@@ -226,7 +232,7 @@ function sampleOverlapping(region: Region, ringEdgeStart: Int32Array, step: numb
     for (let i = 0; i < ring.length; i++) {
       const [ax, ay] = ring[i];
       const [bx, by] = ring[(i + 1) % ring.length];
-      const len = Math.hypot(bx - ax, by - ay);
+      const len = norm(bx - ax, by - ay);
       const n = Math.max(1, Math.ceil(len / step));
       // Filled side is on the left; the probe goes a hair to the right.
       const nx = (by - ay) / len, ny = -(bx - ax) / len;
@@ -276,10 +282,15 @@ function medialAxisAt(prep: OrientedRings, step: number): MedialAxisResult {
   }
   const maxSpacing = WALL_SPACING_WIDTHS * SAMPLES_PER_WIDTH * step;
   const coarseCell = Math.max(step * 4, Math.sqrt(Math.max(1e-300, (wallGrid.width * wallGrid.height) / Math.max(1, edges.length / 4))));
-  const sparse = axisFromSamples(prep, step, maxSpacing, sampleWalls(prep, ringEdgeStart, step, maxSpacing), ed, wallGrid, "sparse", () => region(coarseCell));
+  const sparse = axisFromSamples(prep, step, maxSpacing, sampleWalls(prep, ringEdgeStart, maxSpacing), ed, wallGrid, "sparse", () => region(coarseCell));
   if (sparse) return sparse;
   const reg = region(step * 4);
-  return axisFromSamples(prep, step, step, sampleWalls(prep, ringEdgeStart, step, step), ed, wallGrid, "dense", () => reg)!;
+  return axisFromSamples(prep, step, step, sampleWalls(prep, ringEdgeStart, step), ed, wallGrid, "dense", () => reg)!;
+}
+
+/** Length of (dx, dy): Math.hypot guards against overflow we cannot meet here, at several times the cost. */
+function norm(dx: number, dy: number): number {
+  return Math.sqrt(dx * dx + dy * dy);
 }
 
 const nextHalfedge = (e: number) => (e % 3 === 2 ? e - 2 : e + 1);
@@ -294,18 +305,15 @@ function floodInside(S: Samples, triangles: Uint32Array | Int32Array, halfedges:
   const label = new Uint8Array(nT); // 0 unknown, 1 inside, 2 outside
   const wall = new Uint8Array(halfedges.length);
   const stepFound = new Uint8Array(S.n);
-  const succ = (p: number) => {
-    const r = S.ring[p];
-    return S.k[p] + 1 === S.ringCount[r] ? S.ringStart[r] : p + 1;
-  };
+  const succ = S.succ;
   const stack: number[] = [];
   for (let e = 0; e < halfedges.length; e++) {
     const p = triangles[e], q = triangles[nextHalfedge(e)];
     let lab = 0;
-    if (succ(p) === q) {
+    if (succ[p] === q) {
       lab = 2;
       stepFound[p] = 1;
-    } else if (succ(q) === p) {
+    } else if (succ[q] === p) {
       lab = 1;
       stepFound[q] = 1;
     }
@@ -410,7 +418,7 @@ class Projector {
     if (bt === 0 || bt === 1) {
       const f = bt === 0 ? this.prevEdge(be) : this.nextEdge(be);
       const fx = E[4 * f + 1] - E[4 * f + 3], fy = E[4 * f + 2] - E[4 * f];
-      const l1 = Math.hypot(sx, sy), l2 = Math.hypot(fx, fy);
+      const l1 = norm(sx, sy), l2 = norm(fx, fy);
       sx = sx / l1 + fx / l2;
       sy = sy / l1 + fy / l2;
     }
@@ -537,7 +545,7 @@ class Projector {
     const r = this.near[0];
     let spread = 0;
     for (let j = 1; j < nSites; j++) spread = Math.max(spread, Math.abs(this.near[j] - r));
-    if (!(r > 0) || !(spread <= 1e-6 * r) || !(Math.hypot(x - cx, y - cy) <= 2 * cr)) return false;
+    if (!(r > 0) || !(spread <= 1e-6 * r) || !(norm(x - cx, y - cy) <= 2 * cr)) return false;
     this.x = x;
     this.y = y;
     this.r = r;
@@ -595,7 +603,7 @@ function axisFromSamples(
     const ux = (cy * b2 - by * c2) / d, uy = (bx * c2 - cx * b2) / d;
     gx[t] = ax + ux;
     gy[t] = ay + uy;
-    gr[t] = Math.hypot(ux, uy);
+    gr[t] = norm(ux, uy);
     if (probe) inside[t] = probe.contains(gx[t], gy[t]) ? 1 : 0;
   }
   // Voronoi edges between inside vertices whose generating samples are on different walls: neighbouring samples
@@ -657,7 +665,7 @@ function axisFromSamples(
     projector = pr;
   }
 
-  const dist = (t: number, u: number) => Math.hypot(gx[u] - gx[t], gy[u] - gy[t]);
+  const dist = (t: number, u: number) => norm(gx[u] - gx[t], gy[u] - gy[t]);
   // Chains between vertices of degree ≠ 2 (and one per loop without such a vertex).
   const branches: Branch[] = [];
   const nodeOf = new Int32Array(nT).fill(-1);
@@ -831,12 +839,13 @@ function axisFromSamples(
   const holes = prep.depth.filter((d) => d % 2 === 1).length;
   const notes: string[] = [];
   if (mode === "sparse") {
-    notes.push(`Along straight walls the boundary was sampled up to ${fmt(maxSpacing)} drawing units apart, the centreline put on the walls' exact bisectors.`);
+    const shape = Number.isFinite(minR) && minR > 0 ? ` (shape within 1/${Math.round((8 * minR) / step)} of the smallest width, widths within ${WIDTH_TOLERANCE * 100} %)` : "";
+    notes.push(`Every polygon vertex sampled, and walls at most ${fmt(maxSpacing / step / SAMPLES_PER_WIDTH)} smallest widths apart; centreline points put on the walls' exact bisectors${shape}.`);
   }
   return {
     paths,
-    stepUnits: step,
-    maxSpacingUnits: maxSpacing,
+    stepUnits: maxSpacing,
+    toleranceStepUnits: step,
     pruneLengthUnits: PRUNE_FACTOR * (Number.isFinite(pruneMin) ? pruneMin : minR),
     minWidthUnits: Number.isFinite(minR) ? 2 * minR : 0,
     regions,
@@ -869,11 +878,11 @@ export function simplifyMask(pts: [number, number][], tol: number): Uint8Array {
   while (stack.length) {
     const [i, j] = stack.pop()!;
     const [ax, ay] = pts[i], [bx, by] = pts[j];
-    const l = Math.hypot(bx - ax, by - ay);
+    const l = norm(bx - ax, by - ay);
     let best = -1, bestD = tol;
     for (let k = i + 1; k < j; k++) {
       const [px, py] = pts[k];
-      const d = l === 0 ? Math.hypot(px - ax, py - ay) : Math.abs((bx - ax) * (py - ay) - (by - ay) * (px - ax)) / l;
+      const d = l === 0 ? norm(px - ax, py - ay) : Math.abs((bx - ax) * (py - ay) - (by - ay) * (px - ax)) / l;
       if (d > bestD) { bestD = d; best = k; }
     }
     if (best >= 0) {
@@ -897,6 +906,8 @@ class PathBuilder {
   private readonly cs: number[] = [];
   private t0 = 0;
   private t1 = 0;
+  /** Walls the current chain edge's two vertices share, set up in the projector: -1 not yet looked at. */
+  private shared = -1;
 
   constructor(
     private readonly gx: Float64Array,
@@ -916,10 +927,16 @@ class PathBuilder {
     return Number.isFinite(d) ? d : guess;
   }
 
+  /** Exact wall distance at a point whose walls are known to be r away (no nearer wall missed by sparse samples). */
+  private nearestWall(x: number, y: number, r: number): number {
+    const d = this.walls.distance(x, y, r * (1 + 1e-9) + 1e-12);
+    return Number.isFinite(d) ? d : r;
+  }
+
   /** Candidates strictly between (xa, ya) and (xb, yb) on chain edge t0–t1, in order, a few levels deep. */
   private sub(xa: number, ya: number, ra: number, xb: number, yb: number, rb: number, depth: number): void {
     const step = this.step;
-    if (depth > 6 || Math.hypot(xb - xa, yb - ya) <= step) return;
+    if (depth > 6 || norm(xb - xa, yb - ya) <= step) return;
     const t0 = this.t0, t1 = this.t1;
     const hx = (xa + xb) / 2, hy = (ya + yb) / 2;
     let xm = hx, ym = hy, rm: number;
@@ -928,14 +945,15 @@ class PathBuilder {
       // Between the same two edges the axis is straight and its radius linear: the chord is the axis.
       if (this.sigLo[t0] >= 0 && this.sigLo[t0] === this.sigLo[t1] && this.sigHi[t0] === this.sigHi[t1]) return;
       const T = this.triangles;
-      if (pr.sharedWalls(T[3 * t0], T[3 * t0 + 1], T[3 * t0 + 2], T[3 * t1], T[3 * t1 + 1], T[3 * t1 + 2]) >= 2 && pr.solve(hx, hy, hx, hy, Math.max(ra, rb))) {
+      if (this.shared < 0) this.shared = pr.sharedWalls(T[3 * t0], T[3 * t0 + 1], T[3 * t0 + 2], T[3 * t1], T[3 * t1 + 1], T[3 * t1 + 2]);
+      if (this.shared >= 2 && pr.solve(hx, hy, hx, hy, Math.max(ra, rb))) {
         xm = pr.x;
         ym = pr.y;
         rm = pr.r;
       } else rm = this.wall(hx, hy, Math.max(ra, rb));
     } else rm = this.wall(hx, hy, Math.max(ra, rb));
     const lin = (ra + rb) / 2;
-    if (Math.abs(rm - lin) <= 0.5 * WIDTH_TOLERANCE * Math.max(rm, lin) && Math.hypot(xm - hx, ym - hy) <= step / 8) return;
+    if (Math.abs(rm - lin) <= 0.5 * WIDTH_TOLERANCE * Math.max(rm, lin) && norm(xm - hx, ym - hy) <= step / 8) return;
     this.sub(xa, ya, ra, xm, ym, rm, depth + 1);
     this.cx.push(xm);
     this.cy.push(ym);
@@ -957,6 +975,7 @@ class PathBuilder {
     for (let k = 1; k < m; k++) {
       this.t0 = v[k - 1];
       this.t1 = v[k];
+      this.shared = -1;
       const r1 = radiusAt(k);
       this.sub(gx[this.t0], gy[this.t0], rPrev, gx[this.t1], gy[this.t1], r1, 0);
       cx.push(gx[this.t1]);
@@ -965,7 +984,7 @@ class PathBuilder {
       rPrev = r1;
     }
     const nC = cx.length;
-    for (let k = 0; k < nC; k++) cs.push(k === 0 ? 0 : cs[k - 1] + Math.hypot(cx[k] - cx[k - 1], cy[k] - cy[k - 1]));
+    for (let k = 0; k < nC; k++) cs.push(k === 0 ? 0 : cs[k - 1] + norm(cx[k] - cx[k - 1], cy[k] - cy[k - 1]));
     // Keep points where either the shape (a quarter step) or the width (WIDTH_TOLERANCE) is off otherwise.
     const keep = new Uint8Array(nC);
     keep[0] = keep[nC - 1] = 1;
@@ -974,11 +993,11 @@ class PathBuilder {
     while (stack.length) {
       const j = stack.pop()!, i = stack.pop()!;
       const ax = cx[i], ay = cy[i], bx = cx[j], by = cy[j];
-      const l = Math.hypot(bx - ax, by - ay);
+      const l = norm(bx - ax, by - ay);
       const span = cs[j] - cs[i];
       let best = -1, worst = 1;
       for (let k = i + 1; k < j; k++) {
-        const dGeom = l === 0 ? Math.hypot(cx[k] - ax, cy[k] - ay) : Math.abs((bx - ax) * (cy[k] - ay) - (by - ay) * (cx[k] - ax)) / l;
+        const dGeom = l === 0 ? norm(cx[k] - ax, cy[k] - ay) : Math.abs((bx - ax) * (cy[k] - ay) - (by - ay) * (cx[k] - ax)) / l;
         const lin = span > 0 ? cr[i] + ((cr[j] - cr[i]) * (cs[k] - cs[i])) / span : cr[i];
         const bad = Math.max(dGeom / geomTol, Math.abs(cr[k] - lin) / (WIDTH_TOLERANCE * Math.max(cr[k], lin)));
         if (bad > worst) {
@@ -997,7 +1016,7 @@ class PathBuilder {
     for (let k = 0; k < nC; k++) {
       if (!keep[k]) continue;
       const prev = points.at(-1);
-      const near = prev !== undefined && Math.hypot(cx[k] - prev[0], cy[k] - prev[1]) < step / 2;
+      const near = prev !== undefined && norm(cx[k] - prev[0], cy[k] - prev[1]) < step / 2;
       if (near && k !== nC - 1) continue;
       if (near && points.length > 1) {
         points.pop();
@@ -1011,7 +1030,7 @@ class PathBuilder {
       const k = ks[i];
       const last = i === ks.length - 1;
       if ((i === 0 && leafA) || (last && leafB)) radii.push(this.leafRadius(i === 0, k));
-      else radii.push(this.projector ? this.wall(cx[k], cy[k], cr[k]) : cr[k]);
+      else radii.push(this.projector ? this.nearestWall(cx[k], cy[k], cr[k]) : cr[k]);
     }
     return { points, radii };
   }
@@ -1061,7 +1080,7 @@ function extendLeaves(paths: CentrelinePath[], leafEnds: [boolean, boolean][], r
       const kPrev = atEnd ? k - 1 : 1;
       const [x, y] = p.points[k];
       const [px, py] = p.points[kPrev];
-      const l = Math.hypot(x - px, y - py);
+      const l = norm(x - px, y - py);
       if (l === 0) continue;
       const r = p.radii[k];
       let ux = (x - px) / l, uy = (y - py) / l;

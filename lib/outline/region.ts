@@ -64,22 +64,35 @@ export function cleanRings(rings: Ring[]): Ring[] {
  * in another when its box lies inside the other's and three spread vertices are inside it.
  */
 export function nestingDepths(clean: Ring[]): number[] {
-  const boxes = clean.map(bboxOfRing);
-  // Rings sorted by box left edge: only rings starting further left can contain a ring.
-  const order = clean.map((_, i) => i).sort((a, b) => boxes[a][0] - boxes[b][0]);
-  return clean.map((r, i) => {
-    let d = 0;
-    const b = boxes[i];
-    for (const j of order) {
-      if (j === i) continue;
-      const o = boxes[j];
-      if (o[0] > b[0]) break;
-      if (b[1] < o[1] || b[2] > o[2] || b[3] > o[3]) continue;
-      const probes = [0, Math.floor(r.length / 3), Math.floor((2 * r.length) / 3)];
-      if (probes.every((k) => inRing(clean[j], r[k][0], r[k][1]))) d++;
+  const n = clean.length;
+  const box = new Float64Array(4 * n);
+  clean.forEach((r, i) => box.set(bboxOfRing(r), 4 * i));
+  // Rings sorted by box left edge: only rings starting further left can contain a ring. Within that, a ring's
+  // container must also reach past its right edge, so each ring is checked only against the rings still "open"
+  // at its left edge (boxes not yet ended), kept in a list pruned as the sweep moves right.
+  const order = Array.from({ length: n }, (_, i) => i).sort((a, b) => box[4 * a] - box[4 * b]);
+  const depth = new Array<number>(n).fill(0);
+  let open: number[] = [];
+  for (const i of order) {
+    const x0 = box[4 * i], y0 = box[4 * i + 1], x1 = box[4 * i + 2], y1 = box[4 * i + 3];
+    open = open.filter((j) => box[4 * j + 2] >= x0);
+    const r = clean[i];
+    const probes = [0, Math.floor(r.length / 3), Math.floor((2 * r.length) / 3)];
+    for (const j of open) {
+      if (y0 < box[4 * j + 1] || x1 > box[4 * j + 2] || y1 > box[4 * j + 3]) continue;
+      if (probes.every((k) => inRing(clean[j], r[k][0], r[k][1]))) depth[i]++;
     }
-    return d;
-  });
+    // Rings with the same left edge may contain each other either way round: check the earlier ones against it.
+    for (const j of open) {
+      if (box[4 * j] !== x0) continue;
+      const bj = 4 * j;
+      if (box[bj + 1] < y0 || box[bj + 2] > x1 || box[bj + 3] > y1) continue;
+      const q = clean[j];
+      if ([0, Math.floor(q.length / 3), Math.floor((2 * q.length) / 3)].every((k) => inRing(r, q[k][0], q[k][1]))) depth[j]++;
+    }
+    open.push(i);
+  }
+  return depth;
 }
 
 /** Filled area of rings after nesting (outer boundaries minus holes), square drawing units. */
