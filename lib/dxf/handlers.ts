@@ -193,11 +193,14 @@ function leanPoint(scanner: Scanner, x: Group): { x: number; y: number; z?: numb
   return point;
 }
 
+/** The layer name last read: entities come in runs on one layer, and each keeps the same string, not a copy of its own. */
+let lastLayerName = "";
+
 /** dxf-parser's checkCommonEntityProperties for the fields the reader uses (the others have no effect on them). */
 function leanCommon(entity: LeanEntity, g: Group, scanner: Scanner): void {
   switch (g.code) {
     case 5: entity.handle = g.value as string; break;
-    case 8: entity.layer = g.value as string; break;
+    case 8: entity.layer = g.value === lastLayerName ? lastLayerName : (lastLayerName = g.value as string); break;
     case 67: entity.inPaperSpace = g.value !== 0; break;
     case 101: {
       // An embedded object (AutoCAD 2018): skipped to the next entity, as dxf-parser does.
@@ -209,10 +212,11 @@ function leanCommon(entity: LeanEntity, g: Group, scanner: Scanner): void {
   }
 }
 
+// Each handler is looked up by its entity type name, so the type is that name (a shared string, not one per entity).
 export class LeanLine {
   public ForEntityName = "LINE" as const;
   public parseEntity(scanner: Scanner, head: Group): LeanEntity {
-    const entity: LeanEntity = { type: head.value as string, vertices: [] };
+    const entity: LeanEntity = { type: "LINE", vertices: [] };
     let g = scanner.next();
     while (!scanner.isEOF()) {
       if (g.code === 0) break;
@@ -229,7 +233,7 @@ export class LeanLine {
 export class LeanArc {
   public ForEntityName = "ARC" as const;
   public parseEntity(scanner: Scanner, head: Group): LeanEntity {
-    const entity: LeanEntity = { type: head.value as string };
+    const entity: LeanEntity = { type: "ARC" };
     let g = scanner.next();
     while (!scanner.isEOF()) {
       if (g.code === 0) break;
@@ -251,7 +255,7 @@ export class LeanArc {
 export class LeanCircle {
   public ForEntityName = "CIRCLE" as const;
   public parseEntity(scanner: Scanner, head: Group): LeanEntity {
-    const entity: LeanEntity = { type: head.value as string };
+    const entity: LeanEntity = { type: "CIRCLE" };
     let g = scanner.next();
     while (!scanner.isEOF()) {
       if (g.code === 0) break;
@@ -267,7 +271,7 @@ export class LeanCircle {
 export class LeanLwpolyline {
   public ForEntityName = "LWPOLYLINE" as const;
   public parseEntity(scanner: Scanner, head: Group): LeanEntity {
-    const entity: LeanEntity = { type: head.value as string, vertices: [] };
+    const entity: LeanEntity = { type: "LWPOLYLINE", vertices: [] };
     let n = 0;
     let g = scanner.next();
     while (!scanner.isEOF()) {
