@@ -178,6 +178,25 @@ export interface LeanEntity {
   shape?: boolean;
 }
 
+/** Every lean entity with all its fields in one order (unset ones undefined): one object shape, so the walk's reads stay monomorphic. */
+function leanEntity(type: string, vertices: LeanEntity["vertices"]): LeanEntity {
+  return {
+    type,
+    layer: undefined,
+    handle: undefined,
+    inPaperSpace: undefined,
+    vertices,
+    center: undefined,
+    radius: undefined,
+    startAngle: undefined,
+    endAngle: undefined,
+    extrusionDirection: undefined,
+    extrusionDirectionZ: undefined,
+    width: undefined,
+    shape: undefined,
+  };
+}
+
 /**
  * dxf-parser's parsePoint, given the x group just read: y must follow (else the same error), z may.
  * The stock one rewinds to read the x group a second time; the values are the same.
@@ -216,7 +235,7 @@ function leanCommon(entity: LeanEntity, g: Group, scanner: Scanner): void {
 export class LeanLine {
   public ForEntityName = "LINE" as const;
   public parseEntity(scanner: Scanner, head: Group): LeanEntity {
-    const entity: LeanEntity = { type: "LINE", vertices: [] };
+    const entity = leanEntity("LINE", []);
     let g = scanner.next();
     while (!scanner.isEOF()) {
       if (g.code === 0) break;
@@ -233,7 +252,7 @@ export class LeanLine {
 export class LeanArc {
   public ForEntityName = "ARC" as const;
   public parseEntity(scanner: Scanner, head: Group): LeanEntity {
-    const entity: LeanEntity = { type: "ARC" };
+    const entity = leanEntity("ARC", undefined);
     let g = scanner.next();
     while (!scanner.isEOF()) {
       if (g.code === 0) break;
@@ -255,7 +274,7 @@ export class LeanArc {
 export class LeanCircle {
   public ForEntityName = "CIRCLE" as const;
   public parseEntity(scanner: Scanner, head: Group): LeanEntity {
-    const entity: LeanEntity = { type: "CIRCLE" };
+    const entity = leanEntity("CIRCLE", undefined);
     let g = scanner.next();
     while (!scanner.isEOF()) {
       if (g.code === 0) break;
@@ -271,7 +290,7 @@ export class LeanCircle {
 export class LeanLwpolyline {
   public ForEntityName = "LWPOLYLINE" as const;
   public parseEntity(scanner: Scanner, head: Group): LeanEntity {
-    const entity: LeanEntity = { type: "LWPOLYLINE", vertices: [] };
+    const entity = leanEntity("LWPOLYLINE", []);
     let n = 0;
     let g = scanner.next();
     while (!scanner.isEOF()) {
