@@ -112,45 +112,89 @@ interface Samples {
   succ: Int32Array;
 }
 
+/** Samples appended in ring order into typed arrays that grow by doubling. */
 class SampleBuilder {
-  x: number[] = [];
-  y: number[] = [];
-  ring: number[] = [];
-  k: number[] = [];
-  pos: number[] = [];
-  e0: number[] = [];
-  e1: number[] = [];
+  private n = 0;
+  private x: Float64Array;
+  private y: Float64Array;
+  private ring: Int32Array;
+  private k: Int32Array;
+  private pos: Float64Array;
+  private e0: Int32Array;
+  private e1: Int32Array;
   ringStart: number[] = [];
   ringCount: number[] = [];
   perim: number[] = [];
-  push(x: number, y: number, ring: number, pos: number, e0: number, e1: number) {
-    this.k.push(this.x.length - this.ringStart[ring]);
-    this.x.push(x);
-    this.y.push(y);
-    this.ring.push(ring);
-    this.pos.push(pos);
-    this.e0.push(e0);
-    this.e1.push(e1);
+
+  constructor(capacity: number) {
+    const c = Math.max(16, capacity);
+    this.x = new Float64Array(c);
+    this.y = new Float64Array(c);
+    this.ring = new Int32Array(c);
+    this.k = new Int32Array(c);
+    this.pos = new Float64Array(c);
+    this.e0 = new Int32Array(c);
+    this.e1 = new Int32Array(c);
   }
+
+  get length(): number {
+    return this.n;
+  }
+
+  private grow(): void {
+    const c = this.x.length * 2;
+    const f = (a: Float64Array) => {
+      const b = new Float64Array(c);
+      b.set(a);
+      return b;
+    };
+    const i = (a: Int32Array) => {
+      const b = new Int32Array(c);
+      b.set(a);
+      return b;
+    };
+    this.x = f(this.x);
+    this.y = f(this.y);
+    this.pos = f(this.pos);
+    this.ring = i(this.ring);
+    this.k = i(this.k);
+    this.e0 = i(this.e0);
+    this.e1 = i(this.e1);
+  }
+
+  push(x: number, y: number, ring: number, pos: number, e0: number, e1: number): void {
+    if (this.n === this.x.length) this.grow();
+    const j = this.n++;
+    this.k[j] = j - this.ringStart[ring];
+    this.x[j] = x;
+    this.y[j] = y;
+    this.ring[j] = ring;
+    this.pos[j] = pos;
+    this.e0[j] = e0;
+    this.e1[j] = e1;
+  }
+
   build(): Samples {
-    const n = this.x.length;
+    const n = this.n;
+    const ringStart = Int32Array.from(this.ringStart);
+    const ringCount = Int32Array.from(this.ringCount);
     const succ = new Int32Array(n);
     for (let p = 0; p < n; p++) {
       const r = this.ring[p];
-      succ[p] = this.k[p] + 1 === this.ringCount[r] ? this.ringStart[r] : p + 1;
+      succ[p] = this.k[p] + 1 === ringCount[r] ? ringStart[r] : p + 1;
     }
     return {
       succ,
-      n: this.x.length,
-      x: Float64Array.from(this.x),
-      y: Float64Array.from(this.y),
-      ring: Int32Array.from(this.ring),
-      k: Int32Array.from(this.k),
-      pos: Float64Array.from(this.pos),
-      e0: Int32Array.from(this.e0),
-      e1: Int32Array.from(this.e1),
-      ringStart: Int32Array.from(this.ringStart),
-      ringCount: Int32Array.from(this.ringCount),
+      n,
+      x: this.x.subarray(0, n),
+      y: this.y.subarray(0, n),
+      ring: this.ring.subarray(0, n),
+      k: this.k.subarray(0, n),
+      pos: this.pos.subarray(0, n),
+      e0: this.e0.subarray(0, n),
+      e1: this.e1.subarray(0, n),
+      ringStart,
+      ringCount,
       perim: Float64Array.from(this.perim),
     };
   }
@@ -161,6 +205,8 @@ interface RingEdges {
   edges: Float64Array;
   ringEdgeStart: Int32Array;
   ringOfEdge: Int32Array;
+  /** Total length of the edges. */
+  perimeter: number;
 }
 
 function edgesOf(rings: Ring[]): RingEdges {
@@ -174,9 +220,11 @@ function edgesOf(rings: Ring[]): RingEdges {
   const edges = new Float64Array(4 * nE);
   const ringOfEdge = new Int32Array(nE);
   let e = 0;
+  let perimeter = 0;
   rings.forEach((r, ri) => {
     for (let i = 0; i < r.length; i++, e++) {
       const a = r[i], b = r[(i + 1) % r.length];
+      perimeter += norm(b[0] - a[0], b[1] - a[1]);
       edges[4 * e] = a[0];
       edges[4 * e + 1] = a[1];
       edges[4 * e + 2] = b[0];
@@ -184,7 +232,7 @@ function edgesOf(rings: Ring[]): RingEdges {
       ringOfEdge[e] = ri;
     }
   });
-  return { edges, ringEdgeStart, ringOfEdge };
+  return { edges, ringEdgeStart, ringOfEdge, perimeter };
 }
 
 /** Distances from an edge's start at which it is sampled inside (0 < d < len): evenly, at most `spacing` apart. */
@@ -195,11 +243,11 @@ function spacingAlong(len: number, spacing: number, out: number[]): void {
 }
 
 /** Every polygon vertex, and points along each edge at most `spacing` apart. */
-function sampleWalls(prep: OrientedRings, ringEdgeStart: Int32Array, spacing: number): Samples {
-  const b = new SampleBuilder();
+function sampleWalls(prep: OrientedRings, ringEdgeStart: Int32Array, spacing: number, perimeter: number): Samples {
+  const b = new SampleBuilder(ringEdgeStart[prep.rings.length] + Math.ceil(perimeter / spacing));
   const along: number[] = [];
   prep.rings.forEach((ring, ri) => {
-    b.ringStart.push(b.x.length);
+    b.ringStart.push(b.length);
     const base = ringEdgeStart[ri];
     const m = ring.length;
     let s = 0;
@@ -212,7 +260,7 @@ function sampleWalls(prep: OrientedRings, ringEdgeStart: Int32Array, spacing: nu
       for (const d of along) b.push(ax + ((bx - ax) * d) / len, ay + ((by - ay) * d) / len, ri, s + d, base + i, -1);
       s += len;
     }
-    b.ringCount.push(b.x.length - b.ringStart[ri]);
+    b.ringCount.push(b.length - b.ringStart[ri]);
     b.perim.push(s);
   });
   return b.build();
@@ -224,10 +272,10 @@ function sampleWalls(prep: OrientedRings, ringEdgeStart: Int32Array, spacing: nu
  */
 function sampleOverlapping(region: Region, ringEdgeStart: Int32Array, step: number): { samples: Samples; walls: Float64Array } {
   const eps = step * 1e-3;
-  const b = new SampleBuilder();
+  const b = new SampleBuilder(1024);
   const walls: number[] = [];
   region.rings.forEach((ring, ri) => {
-    b.ringStart.push(b.x.length);
+    b.ringStart.push(b.length);
     let s = 0;
     for (let i = 0; i < ring.length; i++) {
       const [ax, ay] = ring[i];
@@ -252,7 +300,7 @@ function sampleOverlapping(region: Region, ringEdgeStart: Int32Array, step: numb
       if (dropped === 0) walls.push(ax, ay, bx, by);
       s += len;
     }
-    b.ringCount.push(b.x.length - b.ringStart[ri]);
+    b.ringCount.push(b.length - b.ringStart[ri]);
     b.perim.push(s);
   });
   return { samples: b.build(), walls: Float64Array.from(walls) };
@@ -282,10 +330,10 @@ function medialAxisAt(prep: OrientedRings, step: number): MedialAxisResult {
   }
   const maxSpacing = WALL_SPACING_WIDTHS * SAMPLES_PER_WIDTH * step;
   const coarseCell = Math.max(step * 4, Math.sqrt(Math.max(1e-300, (wallGrid.width * wallGrid.height) / Math.max(1, edges.length / 4))));
-  const sparse = axisFromSamples(prep, step, maxSpacing, sampleWalls(prep, ringEdgeStart, maxSpacing), ed, wallGrid, "sparse", () => region(coarseCell));
+  const sparse = axisFromSamples(prep, step, maxSpacing, sampleWalls(prep, ringEdgeStart, maxSpacing, ed.perimeter), ed, wallGrid, "sparse", () => region(coarseCell));
   if (sparse) return sparse;
   const reg = region(step * 4);
-  return axisFromSamples(prep, step, step, sampleWalls(prep, ringEdgeStart, step), ed, wallGrid, "dense", () => reg)!;
+  return axisFromSamples(prep, step, step, sampleWalls(prep, ringEdgeStart, step, ed.perimeter), ed, wallGrid, "dense", () => reg)!;
 }
 
 /** Length of (dx, dy): Math.hypot guards against overflow we cannot meet here, at several times the cost. */
@@ -300,7 +348,7 @@ const nextHalfedge = (e: number) => (e % 3 === 2 ? e - 2 : e + 1);
  * of a ring: the filled side is on the ring's left, and d3-delaunay's triangles turn clockwise). Null when a ring
  * step is missing from the triangulation or the flood meets both sides (the triangulation does not follow the walls).
  */
-function floodInside(S: Samples, triangles: Uint32Array | Int32Array, halfedges: Int32Array): Uint8Array | null {
+function floodInside(S: Samples, triangles: Uint32Array, halfedges: Int32Array): Uint8Array | null {
   const nT = triangles.length / 3;
   const label = new Uint8Array(nT); // 0 unknown, 1 inside, 2 outside
   const wall = new Uint8Array(halfedges.length);
@@ -553,6 +601,87 @@ class Projector {
   }
 }
 
+/** Circumcentres and radii of the triangles (inside ones only where `inside` is given); degenerate ones are not inside. */
+function circumcentres(S: Samples, triangles: Uint32Array, inside: Uint8Array, onlyInside: boolean, gx: Float64Array, gy: Float64Array, gr: Float64Array): void {
+  const X = S.x, Y = S.y;
+  const nT = triangles.length / 3;
+  for (let t = 0; t < nT; t++) {
+    if (onlyInside && !inside[t]) continue;
+    const a = triangles[3 * t], b = triangles[3 * t + 1], c = triangles[3 * t + 2];
+    const ax = X[a], ay = Y[a];
+    const bx = X[b] - ax, by = Y[b] - ay, cx = X[c] - ax, cy = Y[c] - ay;
+    const d = 2 * (bx * cy - by * cx);
+    if (Math.abs(d) < 1e-300) {
+      inside[t] = 0;
+      continue;
+    }
+    const b2 = bx * bx + by * by, c2 = cx * cx + cy * cy;
+    const ux = (cy * b2 - by * c2) / d, uy = (bx * c2 - cx * b2) / d;
+    gx[t] = ax + ux;
+    gy[t] = ay + uy;
+    gr[t] = Math.sqrt(ux * ux + uy * uy);
+  }
+}
+
+/**
+ * Voronoi edges between inside vertices whose generating samples are on different walls (neighbouring samples
+ * on one wall give the spokes towards that wall, not the axis): marks both halfedges, counts each vertex's edges.
+ */
+function axisEdges(S: Samples, triangles: Uint32Array, halfedges: Int32Array, inside: Uint8Array, minGap: number, byIndex: boolean, axis: Uint8Array, deg: Uint8Array): void {
+  const ring = S.ring, k = S.k, pos = S.pos;
+  for (let e = 0; e < halfedges.length; e++) {
+    const o = halfedges[e];
+    if (o < e) continue;
+    const t1 = (e / 3) | 0, t2 = (o / 3) | 0;
+    if (!inside[t1] || !inside[t2]) continue;
+    const p = triangles[e], q = triangles[nextHalfedge(e)];
+    const r = ring[p];
+    if (r === ring[q]) {
+      const dk = Math.abs(k[p] - k[q]);
+      if (byIndex && (dk === 1 || dk === S.ringCount[r] - 1)) continue;
+      const per = S.perim[r];
+      const d = Math.abs(pos[p] - pos[q]);
+      if (Math.min(d, per - d) < minGap) continue;
+    }
+    axis[e] = axis[o] = 1;
+    deg[t1]++;
+    deg[t2]++;
+  }
+}
+
+/**
+ * Moves every axis vertex onto its walls' exact bisector, starting from its circumcentre; with sparse samples that
+ * may lie beyond a wall (it strays s²/8w from the midline), which signed distances handle. Also records the two
+ * edges a vertex lies between when its samples are on just two edges (sigLo/sigHi, else -1).
+ */
+function projectVertices(pr: Projector, S: Samples, triangles: Uint32Array, deg: Uint8Array, sparse: boolean, gx: Float64Array, gy: Float64Array, gr: Float64Array, sigLo: Int32Array, sigHi: Int32Array): void {
+  const nT = deg.length;
+  const e0 = S.e0, e1 = S.e1;
+  for (let t = 0; t < nT; t++) {
+    if (!deg[t]) continue;
+    const a = triangles[3 * t], b = triangles[3 * t + 1], c = triangles[3 * t + 2];
+    if (e1[a] < 0 && e1[b] < 0 && e1[c] < 0) {
+      const ea = e0[a], eb = e0[b], ec = e0[c];
+      const lo = Math.min(ea, eb, ec), hi = Math.max(ea, eb, ec);
+      if (lo !== hi && (ea === lo || ea === hi) && (eb === lo || eb === hi) && (ec === lo || ec === hi)) {
+        sigLo[t] = lo;
+        sigHi[t] = hi;
+      }
+    }
+    pr.wallsOf(a, b, c);
+    if (pr.solve(gx[t], gy[t], gx[t], gy[t], gr[t])) {
+      gx[t] = pr.x;
+      gy[t] = pr.y;
+      gr[t] = pr.r;
+    } else if (sparse) {
+      // Not settled: the triangle's centroid, which is inside the region (its circumcentre may not be).
+      gx[t] = (S.x[a] + S.x[b] + S.x[c]) / 3;
+      gy[t] = (S.y[a] + S.y[b] + S.y[c]) / 3;
+      gr[t] = Math.abs(pr.nearest(gx[t], gy[t]));
+    }
+  }
+}
+
 /** The axis after pruning: chains of Voronoi vertices (triangle ids) between nodes. */
 interface Branch {
   v: number[];
@@ -560,6 +689,227 @@ interface Branch {
   b: number;
   len: number;
   alive: boolean;
+}
+
+/** The axis as branches between nodes (its vertices of degree ≠ 2), pruned and with split junctions merged. */
+class Skeleton {
+  readonly branches: Branch[] = [];
+  readonly nodeTri: number[] = [];
+  readonly nodeDeg: number[] = [];
+  private readonly nodeBr: number[][] = [];
+  private readonly nodeOf: Int32Array;
+  /** Smallest junction radius that pruned a spur. */
+  pruneMin = Infinity;
+  /** Vertices moved off their Voronoi position (merged junctions): their radius no longer bounds the wall distance. */
+  readonly moved: Uint8Array;
+
+  constructor(
+    private readonly gx: Float64Array,
+    private readonly gy: Float64Array,
+    private readonly gr: Float64Array,
+    halfedges: Int32Array,
+    axis: Uint8Array,
+    deg: Uint8Array,
+  ) {
+    const nT = deg.length;
+    this.nodeOf = new Int32Array(nT).fill(-1);
+    this.moved = new Uint8Array(nT);
+    const used = new Uint8Array(halfedges.length);
+    for (let pass = 0; pass < 2; pass++) {
+      // First from vertices of degree ≠ 2, then around loops that have none.
+      for (let t = 0; t < nT; t++) {
+        const d = deg[t];
+        if (d === 0 || (pass === 0 ? d === 2 : d !== 2)) continue;
+        for (let e = 3 * t; e < 3 * t + 3; e++) if (axis[e] && !used[e]) this.walk(t, e, halfedges, axis, deg, used);
+      }
+    }
+  }
+
+  private dist(t: number, u: number): number {
+    const dx = this.gx[u] - this.gx[t], dy = this.gy[u] - this.gy[t];
+    return Math.sqrt(dx * dx + dy * dy);
+  }
+
+  private nodeFor(t: number): number {
+    if (this.nodeOf[t] < 0) {
+      this.nodeOf[t] = this.nodeTri.length;
+      this.nodeTri.push(t);
+      this.nodeDeg.push(0);
+      this.nodeBr.push([]);
+    }
+    return this.nodeOf[t];
+  }
+
+  private add(v: number[], len: number): void {
+    const a = this.nodeFor(v[0]), b = this.nodeFor(v[v.length - 1]);
+    const i = this.branches.length;
+    this.branches.push({ v, a, b, len, alive: true });
+    this.nodeBr[a].push(i);
+    this.nodeBr[b].push(i);
+    this.nodeDeg[a]++;
+    this.nodeDeg[b]++;
+  }
+
+  /** From vertex t out through halfedge e0 along vertices of degree 2, to the next node (or back to t). */
+  private walk(t: number, e0: number, halfedges: Int32Array, axis: Uint8Array, deg: Uint8Array, used: Uint8Array): void {
+    const v = [t];
+    let len = 0;
+    let e = e0;
+    for (;;) {
+      used[e] = 1;
+      const o = halfedges[e];
+      used[o] = 1;
+      const u = (o / 3) | 0;
+      len += this.dist(v[v.length - 1], u);
+      v.push(u);
+      if (deg[u] !== 2 || u === t) break;
+      e = -1;
+      for (let f = 3 * u; f < 3 * u + 3; f++) if (f !== o && axis[f]) { e = f; break; }
+    }
+    this.add(v, len);
+  }
+
+  /** Connected pieces: nodes joined by branches (union-find; a loop without a node has its own). */
+  components(): number {
+    const n = this.nodeTri.length;
+    const parent = new Int32Array(n);
+    for (let i = 0; i < n; i++) parent[i] = i;
+    const find = (i: number): number => {
+      while (parent[i] !== i) i = parent[i] = parent[parent[i]];
+      return i;
+    };
+    for (const br of this.branches) parent[find(br.a)] = find(br.b);
+    let count = 0;
+    for (let i = 0; i < n; i++) if (find(i) === i) count++;
+    return count;
+  }
+
+  private other(br: Branch, nd: number): number {
+    return br.a === nd ? br.b : br.a;
+  }
+
+  private kill(i: number): void {
+    const br = this.branches[i];
+    br.alive = false;
+    this.nodeDeg[br.a]--;
+    this.nodeDeg[br.b]--;
+  }
+
+  /** A node left with two branches is no junction: join them into one. */
+  fuse(nd: number): void {
+    if (this.nodeDeg[nd] !== 2) return;
+    const { branches, nodeBr } = this;
+    let i1 = -1, i2 = -1;
+    for (const i of nodeBr[nd]) {
+      if (!branches[i].alive) continue;
+      if (i1 < 0) i1 = i;
+      else i2 = i;
+    }
+    if (i1 < 0 || i2 < 0 || i1 === i2) return;
+    const b1 = branches[i1], b2 = branches[i2];
+    const v1 = b1.b === nd ? b1.v : b1.v.slice().reverse();
+    const v2 = b2.a === nd ? b2.v : b2.v.slice().reverse();
+    const from = this.other(b1, nd), to = this.other(b2, nd);
+    b1.alive = b2.alive = false;
+    this.nodeDeg[nd] = 0;
+    nodeBr[nd] = [];
+    const i = branches.length;
+    v1.pop();
+    for (const x of v2) v1.push(x);
+    branches.push({ v: v1, a: from, b: to, len: b1.len + b2.len, alive: true });
+    for (const end of [from, to]) {
+      const list = nodeBr[end];
+      for (let k = 0; k < list.length; k++) if (list[k] === i1 || list[k] === i2) { list[k] = i; break; }
+    }
+  }
+
+  /**
+   * Spurs: leaf branches shorter than PRUNE_FACTOR × their junction's radius (+ step), until none is left. Every
+   * spur of a round is decided first and removed together: removing one at a time would let its sibling spur
+   * merge into the channel before being looked at.
+   */
+  prune(step: number): void {
+    const { branches, nodeDeg, nodeTri, gr } = this;
+    for (let round = 0; round < 50; round++) {
+      const doomed: number[] = [];
+      for (let i = 0; i < branches.length; i++) {
+        const br = branches[i];
+        if (!br.alive || br.a === br.b) continue;
+        const da = nodeDeg[br.a], db = nodeDeg[br.b];
+        const end = da === 1 && db >= 3 ? br.b : db === 1 && da >= 3 ? br.a : -1;
+        if (end < 0) continue;
+        const rEnd = gr[nodeTri[end]];
+        if (br.len < PRUNE_FACTOR * rEnd + step) {
+          doomed.push(i);
+          this.pruneMin = Math.min(this.pruneMin, rEnd);
+        }
+      }
+      if (doomed.length === 0) break;
+      for (const i of doomed) this.kill(i);
+      for (const i of doomed) {
+        this.fuse(branches[i].a);
+        this.fuse(branches[i].b);
+      }
+    }
+  }
+
+  private chainLength(v: number[]): number {
+    let s = 0;
+    for (let k = 1; k < v.length; k++) s += this.dist(v[k - 1], v[k]);
+    return s;
+  }
+
+  /**
+   * Junctions joined by a branch shorter than two steps are one junction the Voronoi diagram split: the first
+   * moves to the branch's middle and takes over the other's branches.
+   */
+  mergeSplitJunctions(step: number): void {
+    const { branches, nodeDeg, nodeBr, nodeTri, gx, gy, gr } = this;
+    const order = nodeTri.map((_, i) => i).sort((p, q) => nodeTri[p] - nodeTri[q]);
+    for (let round = 0; round < 10; round++) {
+      let merged = 0;
+      for (const nd of order) {
+        if (nodeDeg[nd] < 3) continue;
+        for (const i of nodeBr[nd]) {
+          const br = branches[i];
+          if (!br.alive) continue;
+          const u = this.other(br, nd);
+          if (u === nd || nodeDeg[u] < 3 || br.len >= 2 * step) continue;
+          const vs = br.a === nd ? br.v : br.v.slice().reverse();
+          const mid = vs[(vs.length / 2) | 0];
+          const tn = nodeTri[nd], tu = nodeTri[u];
+          gx[tn] = gx[mid];
+          gy[tn] = gy[mid];
+          gr[tn] = Math.max(gr[tn], gr[tu]);
+          this.moved[tn] = 1;
+          this.kill(i);
+          for (const j of nodeBr[u]) {
+            const bj = branches[j];
+            if (!bj.alive) continue;
+            if (bj.a === u) {
+              bj.a = nd;
+              bj.v[0] = tn;
+              nodeDeg[nd]++;
+              nodeBr[nd].push(j);
+            }
+            if (bj.b === u) {
+              bj.b = nd;
+              bj.v[bj.v.length - 1] = tn;
+              nodeDeg[nd]++;
+              nodeBr[nd].push(j);
+            }
+          }
+          nodeDeg[u] = 0;
+          nodeBr[u] = [];
+          for (const j of nodeBr[nd]) if (branches[j].alive) branches[j].len = this.chainLength(branches[j].v);
+          merged++;
+          break;
+        }
+      }
+      if (merged === 0) break;
+    }
+    for (let nd = 0; nd < nodeTri.length; nd++) this.fuse(nd);
+  }
 }
 
 function axisFromSamples(
@@ -579,261 +929,46 @@ function axisFromSamples(
     coords[2 * i + 1] = S.y[i];
   }
   const del = new Delaunay(coords);
-  const { triangles, halfedges } = del;
+  const triangles = del.triangles as Uint32Array, halfedges = del.halfedges;
   const nT = triangles.length / 3;
+  const gx = new Float64Array(nT), gy = new Float64Array(nT), gr = new Float64Array(nT);
   let inside: Uint8Array;
   if (mode === "sparse") {
     const flood = floodInside(S, triangles, halfedges);
     if (!flood) return null;
     inside = flood;
-  } else inside = new Uint8Array(nT);
-  const gx = new Float64Array(nT), gy = new Float64Array(nT), gr = new Float64Array(nT);
-  const probe = mode !== "sparse" ? region() : undefined;
-  for (let t = 0; t < nT; t++) {
-    if (mode === "sparse" && !inside[t]) continue;
-    const a = triangles[3 * t], b = triangles[3 * t + 1], c = triangles[3 * t + 2];
-    const ax = S.x[a], ay = S.y[a];
-    const bx = S.x[b] - ax, by = S.y[b] - ay, cx = S.x[c] - ax, cy = S.y[c] - ay;
-    const d = 2 * (bx * cy - by * cx);
-    if (Math.abs(d) < 1e-300) {
-      inside[t] = 0;
-      continue;
-    }
-    const b2 = bx * bx + by * by, c2 = cx * cx + cy * cy;
-    const ux = (cy * b2 - by * c2) / d, uy = (bx * c2 - cx * b2) / d;
-    gx[t] = ax + ux;
-    gy[t] = ay + uy;
-    gr[t] = norm(ux, uy);
-    if (probe) inside[t] = probe.contains(gx[t], gy[t]) ? 1 : 0;
+    circumcentres(S, triangles, inside, true, gx, gy, gr);
+  } else {
+    inside = new Uint8Array(nT).fill(1);
+    circumcentres(S, triangles, inside, false, gx, gy, gr);
+    const probe = region();
+    for (let t = 0; t < nT; t++) if (inside[t]) inside[t] = probe.contains(gx[t], gy[t]) ? 1 : 0;
   }
-  // Voronoi edges between inside vertices whose generating samples are on different walls: neighbouring samples
-  // on one wall give the spokes towards that wall, not the axis.
-  const minGap = 2.5 * step;
-  const byIndex = mode !== "overlapping";
   const axis = new Uint8Array(halfedges.length);
   const deg = new Uint8Array(nT);
-  for (let e = 0; e < halfedges.length; e++) {
-    const o = halfedges[e];
-    if (o < e) continue;
-    const t1 = (e / 3) | 0, t2 = (o / 3) | 0;
-    if (!inside[t1] || !inside[t2]) continue;
-    const p = triangles[e], q = triangles[nextHalfedge(e)];
-    const r = S.ring[p];
-    if (r === S.ring[q]) {
-      const dk = Math.abs(S.k[p] - S.k[q]);
-      if (byIndex && (dk === 1 || dk === S.ringCount[r] - 1)) continue;
-      const per = S.perim[r];
-      const d = Math.abs(S.pos[p] - S.pos[q]);
-      if (Math.min(d, per - d) < minGap) continue;
-    }
-    axis[e] = axis[o] = 1;
-    deg[t1]++;
-    deg[t2]++;
-  }
-  const project = mode !== "overlapping";
+  axisEdges(S, triangles, halfedges, inside, 2.5 * step, mode !== "overlapping", axis, deg);
   let projector: Projector | null = null;
-  // The two edges a vertex lies between when its samples are on just two edges (else -1).
   const sigLo = new Int32Array(nT).fill(-1), sigHi = new Int32Array(nT).fill(-1);
-  if (project) {
-    // Newton starts from the circumcentre; with sparse samples that may lie beyond a wall (it strays s²/8w from
-    // the midline), which signed distances handle.
-    const pr = new Projector(S, ed.edges, ed.ringOfEdge, ed.ringEdgeStart);
-    for (let t = 0; t < nT; t++) {
-      if (!deg[t]) continue;
-      const a = triangles[3 * t], b = triangles[3 * t + 1], c = triangles[3 * t + 2];
-      // Straight stretches: all three samples inside edges, on two edges only (a channel between two walls).
-      if (S.e1[a] < 0 && S.e1[b] < 0 && S.e1[c] < 0) {
-        const ea = S.e0[a], eb = S.e0[b], ec = S.e0[c];
-        const lo = Math.min(ea, eb, ec), hi = Math.max(ea, eb, ec);
-        if (lo !== hi && (ea === lo || ea === hi) && (eb === lo || eb === hi) && (ec === lo || ec === hi)) {
-          sigLo[t] = lo;
-          sigHi[t] = hi;
-        }
-      }
-      pr.wallsOf(a, b, c);
-      if (pr.solve(gx[t], gy[t], gx[t], gy[t], gr[t])) {
-        gx[t] = pr.x;
-        gy[t] = pr.y;
-        gr[t] = pr.r;
-      } else if (mode === "sparse") {
-        // Not settled: the triangle's centroid, which is inside the region (its circumcentre may not be).
-        gx[t] = (S.x[a] + S.x[b] + S.x[c]) / 3;
-        gy[t] = (S.y[a] + S.y[b] + S.y[c]) / 3;
-        gr[t] = Math.abs(pr.nearest(gx[t], gy[t]));
-      }
-    }
-    projector = pr;
+  if (mode !== "overlapping") {
+    projector = new Projector(S, ed.edges, ed.ringOfEdge, ed.ringEdgeStart);
+    projectVertices(projector, S, triangles, deg, mode === "sparse", gx, gy, gr, sigLo, sigHi);
   }
+  const sk = new Skeleton(gx, gy, gr, halfedges, axis, deg);
+  const regions = sk.components();
+  sk.prune(step);
+  sk.mergeSplitJunctions(step);
 
-  const dist = (t: number, u: number) => norm(gx[u] - gx[t], gy[u] - gy[t]);
-  // Chains between vertices of degree ≠ 2 (and one per loop without such a vertex).
-  const branches: Branch[] = [];
-  const nodeOf = new Int32Array(nT).fill(-1);
-  const nodeTri: number[] = [];
-  const nodeDeg: number[] = [];
-  const nodeBr: number[][] = [];
-  const nodeFor = (t: number) => {
-    if (nodeOf[t] < 0) {
-      nodeOf[t] = nodeTri.length;
-      nodeTri.push(t);
-      nodeDeg.push(0);
-      nodeBr.push([]);
-    }
-    return nodeOf[t];
-  };
-  const addBranch = (v: number[], len: number) => {
-    const a = nodeFor(v[0]), b = nodeFor(v[v.length - 1]);
-    const i = branches.length;
-    branches.push({ v, a, b, len, alive: true });
-    nodeBr[a].push(i);
-    nodeBr[b].push(i);
-    nodeDeg[a]++;
-    nodeDeg[b]++;
-  };
-  const used = new Uint8Array(halfedges.length);
-  const walkFrom = (t: number, e0: number) => {
-    const v = [t];
-    let len = 0;
-    let e = e0;
-    for (;;) {
-      used[e] = 1;
-      const o = halfedges[e];
-      used[o] = 1;
-      const u = (o / 3) | 0;
-      len += dist(v[v.length - 1], u);
-      v.push(u);
-      if (deg[u] !== 2 || u === t) break;
-      e = -1;
-      for (let f = 3 * u; f < 3 * u + 3; f++) if (f !== o && axis[f]) { e = f; break; }
-    }
-    addBranch(v, len);
-  };
-  for (let t = 0; t < nT; t++) {
-    if (!deg[t] || deg[t] === 2) continue;
-    for (let e = 3 * t; e < 3 * t + 3; e++) if (axis[e] && !used[e]) walkFrom(t, e);
-  }
-  for (let t = 0; t < nT; t++) {
-    if (deg[t] !== 2) continue;
-    for (let e = 3 * t; e < 3 * t + 3; e++) if (axis[e] && !used[e]) walkFrom(t, e);
-  }
-  const regions = countComponents(branches, nodeTri.length);
-
-  const other = (br: Branch, nd: number) => (br.a === nd ? br.b : br.a);
-  const kill = (i: number) => {
-    const br = branches[i];
-    br.alive = false;
-    nodeDeg[br.a]--;
-    nodeDeg[br.b]--;
-  };
-  /** A node left with two branches is no junction: join them into one. */
-  const fuse = (nd: number) => {
-    if (nodeDeg[nd] !== 2) return;
-    const live = nodeBr[nd].filter((i) => branches[i].alive);
-    if (live.length !== 2 || live[0] === live[1]) return;
-    const [i1, i2] = live;
-    const b1 = branches[i1], b2 = branches[i2];
-    const v1 = b1.b === nd ? b1.v : b1.v.slice().reverse();
-    const v2 = b2.a === nd ? b2.v : b2.v.slice().reverse();
-    const from = other(b1, nd), to = other(b2, nd);
-    b1.alive = b2.alive = false;
-    nodeDeg[nd] = 0;
-    nodeBr[nd] = [];
-    const i = branches.length;
-    branches.push({ v: v1.concat(v2.slice(1)), a: from, b: to, len: b1.len + b2.len, alive: true });
-    for (const end of [from, to]) {
-      const list = nodeBr[end];
-      for (let k = 0; k < list.length; k++) if (list[k] === i1 || list[k] === i2) { list[k] = i; break; }
-    }
-  };
-
-  // Spurs: leaf branches shorter than PRUNE_FACTOR × their junction's radius, until none is left. Every spur of
-  // a round is decided first and removed together: removing one at a time would let its sibling spur merge into
-  // the channel before being looked at.
-  let pruneMin = Infinity;
-  for (let round = 0; round < 50; round++) {
-    const doomed: number[] = [];
-    for (let i = 0; i < branches.length; i++) {
-      const br = branches[i];
-      if (!br.alive || br.a === br.b) continue;
-      const da = nodeDeg[br.a], db = nodeDeg[br.b];
-      const end = da === 1 && db >= 3 ? br.b : db === 1 && da >= 3 ? br.a : -1;
-      if (end < 0) continue;
-      const rEnd = gr[nodeTri[end]];
-      if (br.len < PRUNE_FACTOR * rEnd + step) {
-        doomed.push(i);
-        pruneMin = Math.min(pruneMin, rEnd);
-      }
-    }
-    if (doomed.length === 0) break;
-    const touched: number[] = [];
-    for (const i of doomed) {
-      kill(i);
-      touched.push(branches[i].a, branches[i].b);
-    }
-    for (const nd of touched) fuse(nd);
-  }
-
-  // Junctions joined by a branch shorter than two sampling steps are one junction the Voronoi diagram split:
-  // the first moves to the branch's middle and takes over the other's branches.
-  const order = nodeTri.map((_, i) => i).sort((p, q) => nodeTri[p] - nodeTri[q]);
-  const chainLength = (v: number[]) => {
-    let s = 0;
-    for (let k = 1; k < v.length; k++) s += dist(v[k - 1], v[k]);
-    return s;
-  };
-  for (let round = 0; round < 10; round++) {
-    let merged = 0;
-    for (const nd of order) {
-      if (nodeDeg[nd] < 3) continue;
-      for (const i of nodeBr[nd]) {
-        const br = branches[i];
-        if (!br.alive) continue;
-        const u = other(br, nd);
-        if (u === nd || nodeDeg[u] < 3 || br.len >= 2 * step) continue;
-        const vs = br.a === nd ? br.v : br.v.slice().reverse();
-        const mid = vs[(vs.length / 2) | 0];
-        const tn = nodeTri[nd], tu = nodeTri[u];
-        gx[tn] = gx[mid];
-        gy[tn] = gy[mid];
-        gr[tn] = Math.max(gr[tn], gr[tu]);
-        kill(i);
-        for (const j of nodeBr[u]) {
-          const bj = branches[j];
-          if (!bj.alive) continue;
-          if (bj.a === u) {
-            bj.a = nd;
-            bj.v[0] = tn;
-            nodeDeg[nd]++;
-            nodeBr[nd].push(j);
-          }
-          if (bj.b === u) {
-            bj.b = nd;
-            bj.v[bj.v.length - 1] = tn;
-            nodeDeg[nd]++;
-            nodeBr[nd].push(j);
-          }
-        }
-        nodeDeg[u] = 0;
-        nodeBr[u] = [];
-        for (const j of nodeBr[nd]) if (branches[j].alive) branches[j].len = chainLength(branches[j].v);
-        merged++;
-        break;
-      }
-    }
-    if (merged === 0) break;
-  }
-  for (let nd = 0; nd < nodeTri.length; nd++) fuse(nd);
-
-  const builder = new PathBuilder(gx, gy, gr, walls, step, projector, sigLo, sigHi, triangles);
+  const builder = new PathBuilder(gx, gy, gr, walls, step, projector, sigLo, sigHi, triangles, sk.moved);
   const paths: CentrelinePath[] = [];
   const leafEnds: [boolean, boolean][] = [];
   let minR = Infinity;
-  for (const br of branches) {
+  for (const br of sk.branches) {
     if (!br.alive) continue;
-    const path = builder.build(br.v, nodeDeg[br.a] === 1, nodeDeg[br.b] === 1);
+    const leafA = sk.nodeDeg[br.a] === 1, leafB = sk.nodeDeg[br.b] === 1;
+    const path = builder.build(br.v, leafA, leafB);
     for (const r of path.radii) minR = Math.min(minR, r);
     paths.push(path);
-    leafEnds.push([nodeDeg[br.a] === 1, nodeDeg[br.b] === 1]);
+    leafEnds.push([leafA, leafB]);
   }
   extendLeaves(paths, leafEnds, region, step);
   const holes = prep.depth.filter((d) => d % 2 === 1).length;
@@ -842,6 +977,7 @@ function axisFromSamples(
     const shape = Number.isFinite(minR) && minR > 0 ? ` (shape within 1/${Math.round((8 * minR) / step)} of the smallest width, widths within ${WIDTH_TOLERANCE * 100} %)` : "";
     notes.push(`Every polygon vertex sampled, and walls at most ${fmt(maxSpacing / step / SAMPLES_PER_WIDTH)} smallest widths apart; centreline points put on the walls' exact bisectors${shape}.`);
   }
+  const pruneMin = sk.pruneMin;
   return {
     paths,
     stepUnits: maxSpacing,
@@ -855,19 +991,6 @@ function axisFromSamples(
 }
 
 const fmt = (x: number) => String(Number(x.toPrecision(6)));
-
-/** Connected pieces of the axis: nodes joined by branches (union-find), loops without a node counted by their own node. */
-function countComponents(branches: Branch[], nNodes: number): number {
-  const parent = Int32Array.from({ length: nNodes }, (_, i) => i);
-  const find = (i: number): number => {
-    while (parent[i] !== i) i = parent[i] = parent[parent[i]];
-    return i;
-  };
-  for (const br of branches) parent[find(br.a)] = find(br.b);
-  let count = 0;
-  for (let i = 0; i < nNodes; i++) if (find(i) === i) count++;
-  return count;
-}
 
 /** Douglas–Peucker simplification (iterative, keeps the ends): which points to keep. Own code: a dozen lines. */
 export function simplifyMask(pts: [number, number][], tol: number): Uint8Array {
@@ -918,7 +1041,8 @@ class PathBuilder {
     private readonly projector: Projector | null,
     private readonly sigLo: Int32Array,
     private readonly sigHi: Int32Array,
-    private readonly triangles: Uint32Array | Int32Array,
+    private readonly triangles: Uint32Array,
+    private readonly moved: Uint8Array,
   ) {}
 
   /** Exact wall distance near a radius guess (the guess when no wall is that near). */
@@ -961,14 +1085,24 @@ class PathBuilder {
     this.sub(xm, ym, rm, xb, yb, rb, depth + 1);
   }
 
+  /**
+   * Radius at vertex k of chain v: exact where projected; the ends (junctions) are measured, within their
+   * Voronoi radius (the empty circle touches walls) unless a merge moved them.
+   */
+  private radiusAt(v: number[], k: number): number {
+    const t = v[k];
+    if (this.projector && k > 0 && k < v.length - 1) return this.gr[t];
+    if (this.moved[t]) return this.wall(this.gx[t], this.gy[t], this.gr[t]);
+    const d = this.walls.distance(this.gx[t], this.gy[t], this.gr[t] * (1 + 1e-9) + 1e-12);
+    return Number.isFinite(d) ? d : this.wall(this.gx[t], this.gy[t], this.gr[t]);
+  }
+
   /** The path of a chain of vertices; leafA / leafB: that end is a dead end. */
   build(v: number[], leafA: boolean, leafB: boolean): CentrelinePath {
-    const { gx, gy, gr, step, cx, cy, cr, cs } = this;
+    const { gx, gy, step, cx, cy, cr, cs } = this;
     cx.length = cy.length = cr.length = cs.length = 0;
     const m = v.length;
-    // Vertex radii are exact where projected; the ends (junctions, possibly moved) are measured.
-    const radiusAt = (k: number) => (this.projector && k > 0 && k < m - 1 ? gr[v[k]] : this.wall(gx[v[k]], gy[v[k]], gr[v[k]]));
-    let rPrev = radiusAt(0);
+    let rPrev = this.radiusAt(v, 0);
     cx.push(gx[v[0]]);
     cy.push(gy[v[0]]);
     cr.push(rPrev);
@@ -976,7 +1110,7 @@ class PathBuilder {
       this.t0 = v[k - 1];
       this.t1 = v[k];
       this.shared = -1;
-      const r1 = radiusAt(k);
+      const r1 = this.radiusAt(v, k);
       this.sub(gx[this.t0], gy[this.t0], rPrev, gx[this.t1], gy[this.t1], r1, 0);
       cx.push(gx[this.t1]);
       cy.push(gy[this.t1]);

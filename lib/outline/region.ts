@@ -59,6 +59,12 @@ export function cleanRings(rings: Ring[]): Ring[] {
   return rings.map(cleanRing).filter((r) => r.length >= 3 && Math.abs(signedArea(r)) > 0);
 }
 
+/** Three spread vertices of ring r lie inside ring o. */
+function spreadInside(r: Ring, o: Ring): boolean {
+  for (const k of [0, Math.floor(r.length / 3), Math.floor((2 * r.length) / 3)]) if (!inRing(o, r[k][0], r[k][1])) return false;
+  return true;
+}
+
 /**
  * How many other rings contain each ring: even = outer boundary of filled area, odd = hole. A ring is nested
  * in another when its box lies inside the other's and three spread vertices are inside it.
@@ -72,23 +78,23 @@ export function nestingDepths(clean: Ring[]): number[] {
   // at its left edge (boxes not yet ended), kept in a list pruned as the sweep moves right.
   const order = Array.from({ length: n }, (_, i) => i).sort((a, b) => box[4 * a] - box[4 * b]);
   const depth = new Array<number>(n).fill(0);
-  let open: number[] = [];
+  const open: number[] = [];
   for (const i of order) {
     const x0 = box[4 * i], y0 = box[4 * i + 1], x1 = box[4 * i + 2], y1 = box[4 * i + 3];
-    open = open.filter((j) => box[4 * j + 2] >= x0);
+    let kept = 0;
+    for (const j of open) if (box[4 * j + 2] >= x0) open[kept++] = j;
+    open.length = kept;
     const r = clean[i];
-    const probes = [0, Math.floor(r.length / 3), Math.floor((2 * r.length) / 3)];
     for (const j of open) {
       if (y0 < box[4 * j + 1] || x1 > box[4 * j + 2] || y1 > box[4 * j + 3]) continue;
-      if (probes.every((k) => inRing(clean[j], r[k][0], r[k][1]))) depth[i]++;
+      if (spreadInside(r, clean[j])) depth[i]++;
     }
     // Rings with the same left edge may contain each other either way round: check the earlier ones against it.
     for (const j of open) {
       if (box[4 * j] !== x0) continue;
       const bj = 4 * j;
       if (box[bj + 1] < y0 || box[bj + 2] > x1 || box[bj + 3] > y1) continue;
-      const q = clean[j];
-      if ([0, Math.floor(q.length / 3), Math.floor((2 * q.length) / 3)].every((k) => inRing(r, q[k][0], q[k][1]))) depth[j]++;
+      if (spreadInside(clean[j], r)) depth[j]++;
     }
     open.push(i);
   }
