@@ -399,10 +399,12 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     if (lastLines > 0) linesByLayer.set(lastName!, (linesByLayer.get(lastName!) ?? 0) + lastLines);
     lastLines = 0;
   };
-  drawing.entities.forEach((e, src) => {
+  const entities = drawing.entities;
+  for (let src = 0; src < entities.length; src++) {
+    const e = entities[src];
     if (e.kind === "text") {
       texts.push(e);
-      return;
+      continue;
     }
     if (e.layer !== lastName) {
       flushLines();
@@ -426,18 +428,19 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
         if (e.kind === "path") for (const p of e.pieces) grow(bboxOf(p));
         // Closed shapes on a channel layer are mask outlines (chambers, filled channels), kept for an outline reader.
         (shapesByLayer.get(e.layer) ?? shapesByLayer.set(e.layer, []).get(e.layer)!).push(e);
-        return;
+        continue;
       }
       lastLines++;
       for (const p of e.pieces) {
         const len = pieceLength(p);
         if (!(len > 0)) continue;
         bboxInto(p, box, 0, 0);
-        grow(box);
+        // grow(box), inline: the one hot call site.
+        minX = Math.min(minX, box[0]); minY = Math.min(minY, box[1]); maxX = Math.max(maxX, box[2]); maxY = Math.max(maxY, box[3]);
         works.push({ p, len, layer, src, curveR: e.minCurveRadius });
       }
     }
-  });
+  }
   flushLines();
   const masks: NonNullable<ChannelNetwork["masks"]> = [];
   for (const l of plan.summaries) {

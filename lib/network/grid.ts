@@ -32,6 +32,10 @@ export class CellHash {
     this.slots = new Int32Array(n).fill(-1);
   }
 
+  /** Cell coordinates of each slot, filled on insertion (slot → ix, iy without a probe). */
+  cellX: Int32Array = new Int32Array(16);
+  cellY: Int32Array = new Int32Array(16);
+
   /** Slot of cell (ix, iy); inserted when absent and `insert`, else −1. */
   slot(ix: number, iy: number, insert: boolean): number {
     let h = (Math.imul(ix, 0x9e3779b1) ^ Math.imul(iy, 0x85ebca77)) & this.mask;
@@ -42,6 +46,16 @@ export class CellHash {
         this.xs[h] = ix;
         this.ys[h] = iy;
         this.slots[h] = this.size;
+        if (this.size === this.cellX.length) {
+          const x = new Int32Array(this.size * 2);
+          const y = new Int32Array(this.size * 2);
+          x.set(this.cellX);
+          y.set(this.cellY);
+          this.cellX = x;
+          this.cellY = y;
+        }
+        this.cellX[this.size] = ix;
+        this.cellY[this.size] = iy;
         return this.size++;
       }
       if (this.xs[h] === ix && this.ys[h] === iy) return s;
@@ -108,6 +122,8 @@ export class StaticGrid {
    */
   forEachOverlappingPair(boxes: Float64Array, fn: (a: number, b: number) => void): void {
     const cells = this.hash.size;
+    const cellX = this.hash.cellX;
+    const cellY = this.hash.cellY;
     for (let c = 0; c < cells; c++) {
       const start = this.offset[c];
       const end = this.offset[c + 1];
@@ -120,7 +136,7 @@ export class StaticGrid {
           if (boxes[b4] > boxes[a4 + 2] || boxes[b4 + 2] < boxes[a4] || boxes[b4 + 1] > boxes[a4 + 3] || boxes[b4 + 3] < boxes[a4 + 1]) continue;
           const cx = Math.floor(Math.max(boxes[a4], boxes[b4]) * this.inv + GRID_PHASE);
           const cy = Math.floor(Math.max(boxes[a4 + 1], boxes[b4 + 1]) * this.inv + GRID_PHASE);
-          if (this.hash.slot(clampCell(cx), clampCell(cy), false) !== c) continue;
+          if (clampCell(cx) !== cellX[c] || clampCell(cy) !== cellY[c]) continue;
           if (a < b) fn(a, b);
           else fn(b, a);
         }
