@@ -728,21 +728,22 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   for (const r of otherStops) stops.push(r);
   const usedPiece = new Uint8Array(pieces.length);
   const segments: NetworkSegment[] = [];
-  const chain: number[] = [];
-  const chainFwd: boolean[] = [];
+  // The pieces of the segment being walked and their directions (1: start to end): typed arrays with a count, reused
+  // (setting a plain array's length to 0 for each of 20k segments costs more than the walk itself).
+  const chain = new Int32Array(pieces.length);
+  const chainFwd = new Uint8Array(pieces.length);
   for (const start of stops) {
     for (let e0 = offset[start]; e0 < offset[start + 1]; e0++) {
       const k0 = endsAt[e0];
       if (usedPiece[k0 >> 1]) continue;
-      chain.length = 0;
-      chainFwd.length = 0;
+      let n = 0;
       let k = k0;
       let endRoot = start;
       for (;;) {
         const i = k >> 1;
         usedPiece[i] = 1;
-        chain.push(i);
-        chainFwd.push((k & 1) === 0);
+        chain[n] = i;
+        chainFwd[n++] = (k & 1) === 0 ? 1 : 0;
         endRoot = rootOf[k ^ 1];
         if (kindOf[endRoot] !== 0) break;
         let next = -1;
@@ -756,7 +757,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
         if (next === -1) break;
         k = next;
       }
-      segments.push(makeSegment(`s${segments.length + 1}`, nodeOf(start), nodeOf(endRoot), chain, chainFwd, pieces, widthCache, mpu));
+      segments.push(makeSegment(`s${segments.length + 1}`, nodeOf(start), nodeOf(endRoot), chain, chainFwd, n, pieces, widthCache, mpu));
       if ((segments.length & 1023) === 0) onSample?.();
     }
   }
@@ -797,8 +798,10 @@ function makeSegment(
   id: string,
   from: string,
   to: string,
-  chain: number[],
-  chainFwd: boolean[],
+  chain: Int32Array,
+  chainFwd: Uint8Array,
+  /** How many entries of chain and chainFwd belong to this segment. */
+  n: number,
   pieces: Work[],
   widthCache: Float64Array,
   mpu: number,
@@ -806,7 +809,7 @@ function makeSegment(
   const layer = pieces[chain[0]].layer;
   // The path's exact size up front: arrays grown by push keep spare capacity, which 20k short paths would hold on to.
   let nPath = 1;
-  for (let c = 0; c < chain.length; c++) {
+  for (let c = 0; c < n; c++) {
     const p = pieces[chain[c]].p;
     nPath += p.kind === "line" ? 1 : arcSteps(p.sweep);
   }
@@ -820,9 +823,9 @@ function makeSegment(
   let lastW = NaN;
   let minW = Infinity;
   let maxW = -Infinity;
-  for (let c = 0; c < chain.length; c++) {
+  for (let c = 0; c < n; c++) {
     const w = pieces[chain[c]];
-    const fwd = chainFwd[c];
+    const fwd = chainFwd[c] === 1;
     const p = w.p;
     const a = widthCache[2 * chain[c]];
     const b = widthCache[2 * chain[c] + 1];
@@ -838,9 +841,9 @@ function makeSegment(
     }
     if (p.kind === "line") path[np++] = fwd ? [p.x1 * mpu, p.y1 * mpu] : [p.x0 * mpu, p.y0 * mpu];
     else {
-      const n = arcSteps(p.sweep);
-      for (let k = 1; k <= n; k++) {
-        const q = pointAt(p, fwd ? k / n : 1 - k / n);
+      const steps = arcSteps(p.sweep);
+      for (let k = 1; k <= steps; k++) {
+        const q = pointAt(p, fwd ? k / steps : 1 - k / steps);
         path[np++] = [q.x * mpu, q.y * mpu];
       }
     }
