@@ -234,7 +234,7 @@ function leanCommon(entity: LeanEntity, g: Group, scanner: Scanner): void {
 // Each handler is looked up by its entity type name, so the type is that name (a shared string, not one per entity).
 export class LeanLine {
   public ForEntityName = "LINE" as const;
-  public parseEntity(scanner: Scanner, head: Group): LeanEntity {
+  public parseEntity(scanner: Scanner, _head: Group): LeanEntity {
     const entity = leanEntity("LINE", []);
     let g = scanner.next();
     while (!scanner.isEOF()) {
@@ -251,7 +251,7 @@ export class LeanLine {
 
 export class LeanArc {
   public ForEntityName = "ARC" as const;
-  public parseEntity(scanner: Scanner, head: Group): LeanEntity {
+  public parseEntity(scanner: Scanner, _head: Group): LeanEntity {
     const entity = leanEntity("ARC", undefined);
     let g = scanner.next();
     while (!scanner.isEOF()) {
@@ -273,7 +273,7 @@ export class LeanArc {
 
 export class LeanCircle {
   public ForEntityName = "CIRCLE" as const;
-  public parseEntity(scanner: Scanner, head: Group): LeanEntity {
+  public parseEntity(scanner: Scanner, _head: Group): LeanEntity {
     const entity = leanEntity("CIRCLE", undefined);
     let g = scanner.next();
     while (!scanner.isEOF()) {
@@ -289,7 +289,7 @@ export class LeanCircle {
 
 export class LeanLwpolyline {
   public ForEntityName = "LWPOLYLINE" as const;
-  public parseEntity(scanner: Scanner, head: Group): LeanEntity {
+  public parseEntity(scanner: Scanner, _head: Group): LeanEntity {
     const entity = leanEntity("LWPOLYLINE", []);
     let n = 0;
     let g = scanner.next();
