@@ -311,7 +311,8 @@ type Mode = "sparse" | "dense" | "overlapping";
 function medialAxisAt(prep: OrientedRings, step: number): MedialAxisResult {
   const ed = edgesOf(prep.rings);
   const { edges, ringEdgeStart, ringOfEdge } = ed;
-  const wallGrid = new WallGrid(edges, step * 4);
+  // Cells of about two smallest widths: a wall-distance query then looks at a few cells at most.
+  const wallGrid = new WallGrid(edges, step * 2 * SAMPLES_PER_WIDTH);
   const ringLen = (r: number) => ringEdgeStart[r + 1] - ringEdgeStart[r];
   // Consecutive edges of one ring share their vertex; any other contact means shapes overlap or touch.
   const overlapping = wallGrid.anyMeeting((a, b) => {
@@ -569,19 +570,26 @@ class Projector {
     if (nSites < 2) return false;
     let x = sx, y = sy;
     const tol = cr * 1e-12;
+    let settled = false;
     for (let it = 0; it < 8; it++) {
       for (let j = 0; j < nSites; j++) this.measure(j, x, y);
       const f1 = this.near[0] - this.near[1];
       const g1x = this.ux[0] - this.ux[1], g1y = this.uy[0] - this.uy[1];
       if (nSites === 2) {
-        if (Math.abs(f1) <= tol) break;
+        if (Math.abs(f1) <= tol) {
+          settled = true;
+          break;
+        }
         const gg = g1x * g1x + g1y * g1y;
         if (!(gg > 1e-12)) return false;
         x -= (f1 * g1x) / gg;
         y -= (f1 * g1y) / gg;
       } else {
         const f2 = this.near[0] - this.near[2];
-        if (Math.abs(f1) <= tol && Math.abs(f2) <= tol) break;
+        if (Math.abs(f1) <= tol && Math.abs(f2) <= tol) {
+          settled = true;
+          break;
+        }
         const g2x = this.ux[0] - this.ux[2], g2y = this.uy[0] - this.uy[2];
         const det = g1x * g2y - g1y * g2x;
         if (!(Math.abs(det) > 1e-9)) return false;
@@ -589,7 +597,7 @@ class Projector {
         y -= (g1x * f2 - g2x * f1) / det;
       }
     }
-    for (let j = 0; j < nSites; j++) this.measure(j, x, y);
+    if (!settled) for (let j = 0; j < nSites; j++) this.measure(j, x, y);
     const r = this.near[0];
     let spread = 0;
     for (let j = 1; j < nSites; j++) spread = Math.max(spread, Math.abs(this.near[j] - r));

@@ -64,11 +64,13 @@ export function readOutlineLayer(shapes: (PathEntity | CircleEntity)[], stepUnit
   return { pieces, curveRadii, axis, rings };
 }
 
+const dist = (a: [number, number], b: [number, number]) => Math.sqrt((b[0] - a[0]) ** 2 + (b[1] - a[1]) ** 2);
+
 /** Circumradius of three points (plane geometry: R = abc / 4·area). */
 function circumradius(a: [number, number], b: [number, number], c: [number, number]): number {
-  const ab = Math.hypot(b[0] - a[0], b[1] - a[1]);
-  const bc = Math.hypot(c[0] - b[0], c[1] - b[1]);
-  const ca = Math.hypot(a[0] - c[0], a[1] - c[1]);
+  const ab = dist(a, b);
+  const bc = dist(b, c);
+  const ca = dist(c, a);
   const area2 = Math.abs((b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0]));
   return area2 === 0 ? Infinity : (ab * bc * ca) / (2 * area2);
 }
@@ -80,7 +82,7 @@ function circumradius(a: [number, number], b: [number, number], c: [number, numb
  */
 function bendRadius(points: [number, number][], radii: number[]): number | null {
   const s = [0];
-  for (let i = 1; i < points.length; i++) s.push(s[i - 1] + Math.hypot(points[i][0] - points[i - 1][0], points[i][1] - points[i - 1][1]));
+  for (let i = 1; i < points.length; i++) s.push(s[i - 1] + dist(points[i - 1], points[i]));
   const total = s.at(-1)!;
   let min = Infinity;
   for (let i = 1; i + 1 < points.length; i++) {
