@@ -399,9 +399,8 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     if (lastLines > 0) linesByLayer.set(lastName!, (linesByLayer.get(lastName!) ?? 0) + lastLines);
     lastLines = 0;
   };
-  const entities = drawing.entities;
-  for (let src = 0; src < entities.length; src++) {
-    const e = entities[src];
+  for (let src = 0; src < drawing.entities.length; src++) {
+    const e = drawing.entities[src];
     if (e.kind === "text") {
       texts.push(e);
       continue;
@@ -604,6 +603,9 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   if (dupPairs.size > MAX_LISTED_WARNINGS) warnings.push({ code: "duplicate_merged", message: `${dupPairs.size - MAX_LISTED_WARNINGS} more duplicated channels were counted once.` });
 
   stage("duplicates");
+  // The drawing is extractNetwork's own (read there, never returned) and its entities are not needed past this point:
+  // letting the list go frees the entity wrappers before the network is built (the works keep the pieces they use).
+  drawing.entities = [];
   // Graph in compressed form: for every node root, the piece ends incident to it (ends 2i, 2i+1 of piece i).
   const nAll = nEnds + ports.length;
   const rootOf = new Int32Array(nEnds).fill(-1);
