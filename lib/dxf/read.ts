@@ -12,7 +12,7 @@ import { flattenNurbs, flattenParametric, minRadiusOfPolyline, type Pt } from ".
 import { COUNTED_ONLY_TYPES, countingHandler, LeanArc, LeanCircle, LeanLine, LeanLwpolyline, PolylineWithWidths, SplineWithWeights, type RawPolyline, type RawSpline } from "./handlers";
 import { flattenHatchEdge, HatchWithBoundaries, type RawHatch } from "./hatch";
 import type { ArcPiece, DrawingEntity, DxfDrawing, Piece } from "./types";
-import { TextScanner, type Group } from "./scanner";
+import { TextScanner, type Group, type GroupScanner } from "./scanner";
 import { INSUNITS_OTHER_NAMES, INSUNITS_TO_UNIT, METRES_PER_UNIT, type DrawingUnit } from "./units";
 
 /** Largest layout accepted by default, bytes (25 MiB). */
@@ -131,7 +131,7 @@ export function keepLayoutSections(text: string): string {
 
 /** A dxf-parser entity handler, as dxf-parser keeps them by entity type name. */
 interface EntityHandler {
-  parseEntity(scanner: TextScanner, head: Group): IEntity;
+  parseEntity(scanner: GroupScanner, head: Group): IEntity;
 }
 
 function newParser(): DxfParser {
@@ -184,8 +184,8 @@ function parseText(kept: string): IDxf {
 
 const ENTITIES_START = /(^|\n)[ \t]*0[ \t]*\r?\n[ \t]*SECTION[ \t]*\r?\n[ \t]*2[ \t]*\r?\n[ \t]*ENTITIES[ \t]*\r?\n/g;
 const ENDSEC_AT = /[ \t]*0[ \t]*\r?\n[ \t]*ENDSEC[ \t]*(\r?\n|$)/y;
-/** An entity type no DXF uses: a one-entity ENTITIES section of it stands in for the real one in the header-and-blocks parse. */
 const LONE_CR = /\r(?!\n)/g;
+/** An entity type no DXF uses: a one-entity ENTITIES section of it stands in for the real one in the header-and-blocks parse. */
 const PROBE_TYPE = "$STOKELINE_ENTITIES_PROBE";
 const PROBE_SECTION = `0\nSECTION\n2\nENTITIES\n0\n${PROBE_TYPE}\n0\nENDSEC\n`;
 
@@ -236,7 +236,7 @@ function splitEntities(kept: string): EntitiesSplit | null {
   parser.registerEntityHandler(
     class {
       public ForEntityName = PROBE_TYPE;
-      public parseEntity(scanner: TextScanner) {
+      public parseEntity(scanner: GroupScanner) {
         probes++;
         for (let g = scanner.next(); !scanner.isEOF() && g.code !== 0; g = scanner.next());
         return (probe = { type: PROBE_TYPE });

@@ -11,6 +11,14 @@ export interface Group {
   value: number | string | boolean;
 }
 
+/** What entity handlers use of a scanner: this one, or dxf-parser's DxfArrayScanner when dxf-parser drives them. */
+export interface GroupScanner {
+  next(): Group;
+  isEOF(): boolean;
+  rewind(numberOfGroups?: number): void;
+  lastReadGroup: Group;
+}
+
 /** DXF group value by code range, exactly as dxf-parser's parseGroupValue (DXF reference, group code value types). */
 function parseGroupValue(code: number, value: string): number | string | boolean {
   if (code <= 9) return value;
