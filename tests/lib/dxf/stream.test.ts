@@ -39,9 +39,14 @@ describe("streamed ENTITIES read", () => {
 
   for (const file of files) {
     const name = file.split("/").slice(-2).join("/");
-    it(`${name}: the same drawing as dxf-parser's whole-text parse, also cut short and with lines garbled`, () => {
+    it(`${name}: the same drawing as dxf-parser's whole-text parse, also with other line ends, cut short and garbled`, () => {
       const text = readFileSync(file, "utf8");
       expect(outcome(text, true)).toEqual(outcome(text, false));
+      // Other line ends and padding (DXF allows blanks around codes and values): CRLF, some lines CRLF, lone CR, padded.
+      const lf = text.replace(/\r\n/g, "\n");
+      for (const variant of [lf.replace(/\n/g, "\r\n"), lf.split("\n").map((l, i) => (i % 3 === 0 ? l + "\r" : l)).join("\n"), lf.replace(/\n/g, "\r"), lf.split("\n").map((l) => `  ${l} `).join("\n")]) {
+        expect(outcome(variant, true)).toEqual(outcome(variant, false));
+      }
       const rnd = lcg(text.length);
       for (let k = 0; k < 12; k++) {
         // Cut inside the ENTITIES section, then closed with an EOF marker so the parser, not the EOF check, meets the cut.
