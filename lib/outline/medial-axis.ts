@@ -13,7 +13,7 @@
  * is tested against the region.
  */
 import { Delaunay } from "d3-delaunay";
-import { orientRings, orientedArea, Region, segDist2, WallGrid, type OrientedRings, type Ring } from "./region";
+import { orientRings, orientedArea, Region, WallGrid, type OrientedRings, type Ring } from "./region";
 
 /** Samples per smallest width (common practice for Voronoi medial axes: a few samples across the narrowest gap). */
 export const SAMPLES_PER_WIDTH = 6;
@@ -501,17 +501,33 @@ class Projector {
     this.siteStart[0] = 0;
     const sab = shareEdge(S, a, b), sbc = shareEdge(S, b, c), sac = shareEdge(S, a, c);
     const same = (sab ? 1 : 0) + (sbc ? 1 : 0) + (sac ? 1 : 0);
-    if (same === 3) this.addSite(a, b), this.addSite(c);
+    // Which samples make up which wall, by how many sample pairs share an edge.
+    let p1 = a, q1 = -1, p2 = c, p3 = -1;
+    if (same === 3) q1 = b;
     else if (same === 2) {
       // One sample sits at the vertex joining the other two's edges: the bisector of those two edges.
-      if (!sab) this.addSite(a), this.addSite(b);
-      else if (!sbc) this.addSite(b), this.addSite(c);
-      else this.addSite(a), this.addSite(c);
+      if (!sab) p2 = b;
+      else if (!sbc) {
+        p1 = b;
+        p2 = c;
+      }
     } else if (same === 1) {
-      if (sab) this.addSite(a, b), this.addSite(c);
-      else if (sbc) this.addSite(b, c), this.addSite(a);
-      else this.addSite(a, c), this.addSite(b);
-    } else this.addSite(a), this.addSite(b), this.addSite(c);
+      if (sab) q1 = b;
+      else if (sbc) {
+        p1 = b;
+        q1 = c;
+        p2 = a;
+      } else {
+        q1 = c;
+        p2 = b;
+      }
+    } else {
+      p2 = b;
+      p3 = c;
+    }
+    this.addSite(p1, q1);
+    this.addSite(p2);
+    if (p3 >= 0) this.addSite(p3);
     return same === 3 ? 1 : this.nSites;
   }
 
@@ -978,7 +994,7 @@ function axisFromSamples(
     paths.push(path);
     leafEnds.push([leafA, leafB]);
   }
-  extendLeaves(paths, leafEnds, region, step);
+  extendLeaves(paths, leafEnds, region, step, maxSpacing);
   const holes = prep.depth.filter((d) => d % 2 === 1).length;
   const notes: string[] = [];
   if (mode === "sparse") {
@@ -1214,7 +1230,7 @@ class PathBuilder {
 }
 
 /** Dead ends: the axis stops one radius short of a flat or round end wall; extend it there along its last direction. */
-function extendLeaves(paths: CentrelinePath[], leafEnds: [boolean, boolean][], region: () => Region, step: number): void {
+function extendLeaves(paths: CentrelinePath[], leafEnds: [boolean, boolean][], region: () => Region, step: number, maxSpacing: number): void {
   paths.forEach((p, i) => {
     for (const atEnd of [false, true]) {
       if (!leafEnds[i][atEnd ? 1 : 0] || p.points.length < 2) continue;
@@ -1226,17 +1242,25 @@ function extendLeaves(paths: CentrelinePath[], leafEnds: [boolean, boolean][], r
       if (l === 0) continue;
       const r = p.radii[k];
       let ux = (x - px) / l, uy = (y - py) / l;
-      // Stop at the wall if it is nearer than one radius straight ahead.
+      // On to the wall straight ahead: one radius from where the axis ends, which with sparse samples can be up
+      // to one sample spacing further in (the last vertex is not the end wall's junction); never further.
       const reg = region();
-      let reach = r;
-      if (!reg.contains(x + ux * reach, y + uy * reach)) {
-        let lo = 0, hi = r;
-        for (let it = 0; it < 40; it++) {
-          const mid = (lo + hi) / 2;
-          if (reg.contains(x + ux * mid, y + uy * mid)) lo = mid;
-          else hi = mid;
+      const cap = r + maxSpacing - step;
+      let reach = cap;
+      let lo = 0;
+      for (let d = Math.min(r, cap); ; d = Math.min(d + step / 2, cap)) {
+        if (!reg.contains(x + ux * d, y + uy * d)) {
+          let hi = d;
+          for (let it = 0; it < 40; it++) {
+            const mid = (lo + hi) / 2;
+            if (reg.contains(x + ux * mid, y + uy * mid)) lo = mid;
+            else hi = mid;
+          }
+          reach = lo;
+          break;
         }
-        reach = lo;
+        lo = d;
+        if (d >= cap) break;
       }
       if (!(reach > step / 8)) continue;
       ux *= reach;

@@ -1,0 +1,72 @@
+/**
+ * Centrelines from sparsely sampled straight walls, against closed forms of the drawn geometry: a square grid of
+ * channels (an outer square with square holes), two flat-ended channels side by side, and the T junction fixture
+ * (Shapely buffer, tests/fixtures/outlines/generate.py).
+ */
+import { readFileSync } from "node:fs";
+import { describe, expect, it } from "vitest";
+import { extractMedialAxis, type CentrelinePath } from "@/lib/outline/medial-axis";
+import { extractNetwork } from "@/lib/network/extract";
+import type { Ring } from "@/lib/outline/region";
+
+const outDir = new URL("../../fixtures/outlines/", import.meta.url);
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+const outlines: Record<string, any> = JSON.parse(readFileSync(new URL("expected.json", outDir), "utf8")).fixtures;
+const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
+const lengthOf = (p: CentrelinePath) => p.points.reduce((s, q, i) => (i === 0 ? 0 : s + Math.hypot(q[0] - p.points[i - 1][0], q[1] - p.points[i - 1][1])), 0);
+const rect = (x0: number, y0: number, x1: number, y1: number): Ring => [[x0, y0], [x1, y0], [x1, y1], [x0, y1]];
+
+describe("square grid of channels drawn as its mask", () => {
+  // n × n junctions at pitch 400, channels 50 wide: the outer square grown by half a width, each cell's opening a hole.
+  const n = 5, pitch = 400, w = 50, far = (n - 1) * pitch;
+  const rings: Ring[] = [rect(-w / 2, -w / 2, far + w / 2, far + w / 2)];
+  for (let i = 0; i + 1 < n; i++) for (let j = 0; j + 1 < n; j++) rings.push(rect(i * pitch + w / 2, j * pitch + w / 2, (i + 1) * pitch - w / 2, (j + 1) * pitch - w / 2));
+  const axis = extractMedialAxis(rings);
+  const inner = (x: number, y: number) => [x, y].every((c) => Math.abs(c / pitch - Math.round(c / pitch)) < 1e-6 && c > 0 && c < far);
+  const between = axis.paths.filter((p) => inner(...p.points[0]) && inner(...p.points.at(-1)!));
+
+  it("one path per channel between two crossings, each the pitch long", () => {
+    // Closed form: 2·(n−2)·(n−3) channels join two inner crossings; centre to centre is the pitch.
+    expect(between).toHaveLength(2 * (n - 2) * (n - 3));
+    for (const p of between) expect(rel(lengthOf(p), pitch)).toBeLessThan(1e-3);
+  });
+
+  it("half-widths: the drawn half-width along the channel, w/√2 at a crossing (distance to the four wall corners)", () => {
+    for (const p of between) {
+      expect(rel(Math.min(...p.radii), w / 2)).toBeLessThan(0.005);
+      expect(rel(p.radii[0], w / Math.SQRT2)).toBeLessThan(0.005);
+      expect(rel(p.radii.at(-1)!, w / Math.SQRT2)).toBeLessThan(0.005);
+    }
+    expect(rel(axis.minWidthUnits, w)).toBeLessThan(0.005);
+    expect(axis.regions).toBe(1);
+    expect(axis.holes).toBe((n - 1) ** 2);
+  });
+});
+
+describe("flat-ended channels", () => {
+  for (const gap of [10, 300]) {
+    it(`two 5000 × 100 channels ${gap} apart: two centrelines from end wall to end wall, 100 wide`, () => {
+      // Closed form: a flat-ended rectangle's centreline runs the rectangle's length, at its half-width from both sides.
+      const axis = extractMedialAxis([rect(0, 0, 5000, 100), rect(0, 100 + gap, 5000, 200 + gap)]);
+      expect(axis.paths).toHaveLength(2);
+      for (const p of axis.paths) {
+        expect(rel(lengthOf(p), 5000)).toBeLessThan(1e-3);
+        for (const r of p.radii) expect(rel(r, 50)).toBeLessThan(0.005);
+      }
+      expect(axis.regions).toBe(2);
+    });
+  }
+});
+
+describe("T junction from its outline", () => {
+  it("widest at the junction: the circle touching the far wall and the branch's two corners, radius 5w/8", () => {
+    // Plane geometry for a T of equal widths w = 100 µm: the circle through both branch corners tangent to the far
+    // wall has radius 5w/8 (its centre 5w/8 − w/2 off the straight channel's centreline, as in outline.test.ts).
+    const f = outlines["tee-um-r2000-outline"];
+    const net = extractNetwork(readFileSync(new URL(f.file, outDir)), f.conditions);
+    const widest = Math.max(...net.segments.map((s) => s.maxWidthM ?? s.widthM));
+    expect(rel(widest, (2 * 5 * 100e-6) / 8)).toBeLessThan(0.01);
+    // Everywhere else the channel is its drawn 100 µm (Shapely buffer distance × 2).
+    for (const s of net.segments) expect(rel(s.minWidthM ?? s.widthM, f.width_m)).toBeLessThan(0.005);
+  });
+});
