@@ -348,6 +348,7 @@ const nextHalfedge = (e: number) => (e % 3 === 2 ? e - 2 : e + 1);
  * Triangles inside the filled area, by flooding the triangulation from the boundary steps (consecutive samples
  * of a ring: the filled side is on the ring's left, and d3-delaunay's triangles turn clockwise). Null when a ring
  * step is missing from the triangulation or the flood meets both sides (the triangulation does not follow the walls).
+ * Own code: a flood over d3-delaunay's halfedges, a few lines.
  */
 function floodInside(S: Samples, triangles: Uint32Array, halfedges: Int32Array): Uint8Array | null {
   const nT = triangles.length / 3;
@@ -413,6 +414,7 @@ const shareEdge = (S: Samples, p: number, q: number) => {
  * Moves points onto the exact medial axis of walls: Newton steps on the differences of distances to two walls
  * (or three, at a junction), each distance to the nearest of a wall's edges. The walls come from the samples
  * of a Delaunay triangle (its Voronoi vertex), or are those two neighbouring vertices have in common.
+ * Own code: no package we use projects onto a polygon's medial axis, and it is a few Newton steps.
  */
 class Projector {
   private readonly sites = new Int32Array(24);
@@ -1016,34 +1018,10 @@ function axisFromSamples(
 
 const fmt = (x: number) => String(Number(x.toPrecision(6)));
 
-/** Douglas–Peucker simplification (iterative, keeps the ends): which points to keep. Own code: a dozen lines. */
-export function simplifyMask(pts: [number, number][], tol: number): Uint8Array {
-  const keep = new Uint8Array(pts.length);
-  if (pts.length === 0) return keep;
-  keep[0] = keep[pts.length - 1] = 1;
-  const stack: [number, number][] = pts.length > 2 ? [[0, pts.length - 1]] : [];
-  while (stack.length) {
-    const [i, j] = stack.pop()!;
-    const [ax, ay] = pts[i], [bx, by] = pts[j];
-    const l = norm(bx - ax, by - ay);
-    let best = -1, bestD = tol;
-    for (let k = i + 1; k < j; k++) {
-      const [px, py] = pts[k];
-      const d = l === 0 ? norm(px - ax, py - ay) : Math.abs((bx - ax) * (py - ay) - (by - ay) * (px - ax)) / l;
-      if (d > bestD) { bestD = d; best = k; }
-    }
-    if (best >= 0) {
-      keep[best] = 1;
-      stack.push([i, best], [best, j]);
-    }
-  }
-  return keep;
-}
-
 /**
  * Branches as centreline paths: the chain's shape within a quarter step and its width within WIDTH_TOLERANCE,
- * both decided together (Douglas–Peucker on position and radius) on candidate points: the chain's vertices,
- * and midpoints of chain edges along which the axis or its radius bends. With sparse samples (a projector) the
+ * both decided together (Douglas–Peucker on position and radius; own code, a dozen lines) on candidate points:
+ * the chain's vertices, and midpoints of chain edges along which the axis or its radius bends. With sparse samples (a projector) the
  * midpoints are put on the walls' exact bisector; the radii of the points kept come from the exact wall distance.
  */
 class PathBuilder {
