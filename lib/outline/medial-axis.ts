@@ -1029,6 +1029,8 @@ class PathBuilder {
   private readonly cy: number[] = [];
   private readonly cr: number[] = [];
   private readonly cs: number[] = [];
+  private keep = new Uint8Array(64);
+  private readonly stack: number[] = [];
   private t0 = 0;
   private t1 = 0;
   /** Walls the current chain edge's two vertices share, set up in the projector: -1 not yet looked at. */
@@ -1122,10 +1124,14 @@ class PathBuilder {
     const nC = cx.length;
     for (let k = 0; k < nC; k++) cs.push(k === 0 ? 0 : cs[k - 1] + norm(cx[k] - cx[k - 1], cy[k] - cy[k - 1]));
     // Keep points where either the shape (a quarter step) or the width (WIDTH_TOLERANCE) is off otherwise.
-    const keep = new Uint8Array(nC);
+    if (this.keep.length < nC) this.keep = new Uint8Array(2 * nC);
+    const keep = this.keep;
+    keep.fill(0, 0, nC);
     keep[0] = keep[nC - 1] = 1;
     const geomTol = step / 4;
-    const stack: number[] = nC > 2 ? [0, nC - 1] : [];
+    const stack = this.stack;
+    stack.length = 0;
+    if (nC > 2) stack.push(0, nC - 1);
     while (stack.length) {
       const j = stack.pop()!, i = stack.pop()!;
       const ax = cx[i], ay = cy[i], bx = cx[j], by = cy[j];
