@@ -18,6 +18,7 @@ import { describeLayers, planLayers, type LayerPlan, type ResolvedLayer } from "
 import { readOutlineLayer } from "../outline/read";
 import type { ChannelNetwork, LayoutWarning, NetworkNode, NetworkPort, NetworkSegment, NodeKind, WidthSample } from "./types";
 import { UnionFind } from "../graph/union-find";
+import { PieceStore } from "./piece-store";
 
 /** Endpoint-merging tolerance when the conditions give none, metres (common practice: below a 1 µm mask grid). */
 export const DEFAULT_SNAP_M = 0.5e-6;
@@ -31,14 +32,6 @@ export interface ExtractOptions {
   onStage?: (stage: string) => void;
   /** Called inside the long stages (every 1,024 entities read, every 1,024 segments built) for the benchmark's heap samples; no effect on the result. */
   onSample?: () => void;
-}
-
-interface Work {
-  p: Piece;
-  len: number;
-  layer: ResolvedLayer;
-  src: number;
-  curveR: number | null;
 }
 
 interface PortCircle {
@@ -58,14 +51,17 @@ function layoutError(code: string, message: string, plan?: LayerPlan): LayoutErr
  * Widths of a piece in metres at its two ends (its own drawn width, else the layer's), written to
  * out[at] and out[at + 1]; one shared array instead of a tuple per piece.
  */
-function widthsInto(w: Work, mpu: number, out: Float64Array, at: number): void {
-  const lw = w.layer.widthM;
-  const w0 = w.p.w0 === null ? lw : w.p.w0 * mpu;
-  const w1 = w.p.w1 === null ? lw : w.p.w1 * mpu;
+function widthsInto(store: PieceStore, i: number, layers: ResolvedLayer[], mpu: number, out: Float64Array, at: number): void {
+  const layer = layers[store.layer[i]];
+  const lw = layer.widthM;
+  const d0 = store.drawnW0(i);
+  const d1 = store.drawnW1(i);
+  const w0 = d0 === null ? lw : d0 * mpu;
+  const w1 = d1 === null ? lw : d1 * mpu;
   if (w0 === null || w1 === null) {
     throw new LayoutError(
       "width_missing",
-      `Channels on layer "${w.layer.name}" have no drawn width and the layer has none: add "width" (e.g. "100 um") to conditions.layers.${w.layer.name}, or draw the centrelines as polylines with a width.`,
+      `Channels on layer "${layer.name}" have no drawn width and the layer has none: add "width" (e.g. "100 um") to conditions.layers.${layer.name}, or draw the centrelines as polylines with a width.`,
     );
   }
   out[at] = w0;
@@ -114,18 +110,31 @@ function nameports(circles: CircleEntity[], texts: TextEntity[], warnings: Layou
 
 const scratch: number[] = [];
 const scratchBox = new Float64Array(4);
+const scratchLine: LinePiece = { kind: "line", x0: 0, y0: 0, x1: 0, y1: 0, w0: null, w1: null };
 
-/** Cut away the parts of a piece inside any port circle. */
-function trimByPorts(w: Work, ports: PortCircle[], grid: StaticGrid | null): Work[] | null {
+interface Part {
+  p: Piece;
+  len: number;
+}
+
+/** Cut away the parts of piece i inside any port circle: null when nothing is cut, else the parts kept. */
+function trimByPorts(store: PieceStore, i: number, ports: PortCircle[], grid: StaticGrid | null): Part[] | null {
   if (!grid) return null;
-  bboxInto(w.p, scratchBox, 0, 0);
+  if (store.isLine(i)) {
+    // bboxInto of the line, without its piece object.
+    const x0 = store.g0[i], y0 = store.g1[i], x1 = store.g2[i], y1 = store.g3[i];
+    scratchBox[0] = Math.min(x0, x1);
+    scratchBox[1] = Math.min(y0, y1);
+    scratchBox[2] = Math.max(x0, x1);
+    scratchBox[3] = Math.max(y0, y1);
+  } else bboxInto(store.arc(i), scratchBox, 0, 0);
   const hits = grid.queryInto(scratchBox[0], scratchBox[1], scratchBox[2], scratchBox[3], scratch);
   if (hits.length === 0) return null;
-  let parts: Work[] = [w];
+  let parts: Part[] = [{ p: store.piece(i), len: store.len[i] }];
   let changedAny = false;
   for (const pi of new Set(hits)) {
     const c = ports[pi];
-    const next: Work[] = [];
+    const next: Part[] = [];
     for (const part of parts) {
       const cuts = circleCrossings(part.p, c.cx, c.cy, c.r);
       const ts = [0, ...cuts, 1];
@@ -142,7 +151,7 @@ function trimByPorts(w: Work, ports: PortCircle[], grid: StaticGrid | null): Wor
         else {
           changedAny = true;
           const p = subPiece(part.p, ta, tb);
-          next.push({ ...part, p, len: part.len * (tb - ta) });
+          next.push({ p, len: part.len * (tb - ta) });
         }
       }
     }
@@ -173,8 +182,8 @@ function chooseCellSize(boxes: Float64Array, snap: number): number {
  * Split parameters for every piece: T-junctions and crossings. Line coordinates are copied into typed
  * arrays first: the pair loop then reads contiguous memory, and lines (the common case) need no allocation.
  */
-function findSplits(works: Work[], snap: number): (number[] | null)[] {
-  const n = works.length;
+function findSplits(store: PieceStore, snap: number): (number[] | null)[] {
+  const n = store.n;
   const splits: (number[] | null)[] = new Array(n).fill(null);
   const add = (i: number, t: number) => {
     const list = splits[i];
@@ -192,18 +201,21 @@ function findSplits(works: Work[], snap: number): (number[] | null)[] {
   const Y1 = new Float64Array(n);
   const L = new Float64Array(n);
   const boxes = new Float64Array(n * 4);
+  // Arc objects for the geometry helpers (arcs are few); lines are read from the store.
+  const arcs: (ArcPiece | undefined)[] = [];
   for (let i = 0; i < n; i++) {
-    const w = works[i];
-    const p = w.p;
-    if (p.kind === "line") {
+    if (store.isLine(i)) {
       isLine[i] = 1;
-      X0[i] = p.x0; Y0[i] = p.y0; X1[i] = p.x1; Y1[i] = p.y1;
+      const x0 = store.g0[i], y0 = store.g1[i], x1 = store.g2[i], y1 = store.g3[i];
+      X0[i] = x0; Y0[i] = y0; X1[i] = x1; Y1[i] = y1;
       // Boxes grown by the snap tolerance, so pieces that nearly touch are paired too.
-      boxes[4 * i] = Math.min(p.x0, p.x1) - snap;
-      boxes[4 * i + 1] = Math.min(p.y0, p.y1) - snap;
-      boxes[4 * i + 2] = Math.max(p.x0, p.x1) + snap;
-      boxes[4 * i + 3] = Math.max(p.y0, p.y1) + snap;
+      boxes[4 * i] = Math.min(x0, x1) - snap;
+      boxes[4 * i + 1] = Math.min(y0, y1) - snap;
+      boxes[4 * i + 2] = Math.max(x0, x1) + snap;
+      boxes[4 * i + 3] = Math.max(y0, y1) + snap;
     } else {
+      const p = store.arc(i);
+      arcs[i] = p;
       const s = startOf(p);
       const e = endOf(p);
       X0[i] = s.x; Y0[i] = s.y; X1[i] = e.x; Y1[i] = e.y;
@@ -214,8 +226,13 @@ function findSplits(works: Work[], snap: number): (number[] | null)[] {
       boxes[4 * i + 2] = b[2] + snap;
       boxes[4 * i + 3] = b[3] + snap;
     }
-    L[i] = w.len;
+    L[i] = store.len[i];
   }
+  // One line object refilled from the store for each line–arc pair (lineArcHits reads only its ends).
+  const lineAt = (i: number): LinePiece => {
+    scratchLine.x0 = X0[i]; scratchLine.y0 = Y0[i]; scratchLine.x1 = X1[i]; scratchLine.y1 = Y1[i];
+    return scratchLine;
+  };
   const interior = (i: number, t: number) => t * L[i] > snap && (1 - t) * L[i] > snap;
   const snap2 = snap * snap;
   // Endpoint (x, y) of one piece on the interior of piece j (a T-junction): split j there.
@@ -235,7 +252,7 @@ function findSplits(works: Work[], snap: number): (number[] | null)[] {
     const dc = Math.sqrt((x - CX[j]) * (x - CX[j]) + (y - CY[j]) * (y - CY[j])) - R[j];
     if (dc > snap || dc < -snap) return;
     // project() on an arc, without its result object: off the arc's angles the nearest point is an end (t 0 or 1), never interior.
-    const arc = works[j].p as ArcPiece;
+    const arc = arcs[j]!;
     const t = arcFraction(arc, Math.atan2(y - arc.cy, x - arc.cx));
     if (t === null) return;
     if (Math.abs(Math.hypot(x - arc.cx, y - arc.cy) - arc.r) <= snap && interior(j, t)) add(j, t);
@@ -263,7 +280,7 @@ function findSplits(works: Work[], snap: number): (number[] | null)[] {
       // Line and arc: intersect() without its result arrays.
       const li = isLine[i] ? i : j;
       const ai = li === i ? j : i;
-      const n = lineArcHits(works[li].p as LinePiece, works[ai].p as ArcPiece, hits);
+      const n = lineArcHits(lineAt(li), arcs[ai]!, hits);
       for (let k = 0; k < n; k++) {
         const t = li === i ? hits[4 * k] : hits[4 * k + 1];
         const u = li === i ? hits[4 * k + 1] : hits[4 * k];
@@ -271,7 +288,7 @@ function findSplits(works: Work[], snap: number): (number[] | null)[] {
         if (interior(j, u)) add(j, u);
       }
     } else {
-      for (const h of intersect(works[i].p, works[j].p)) {
+      for (const h of intersect(arcs[i]!, arcs[j]!)) {
         if (interior(i, h.t)) add(i, h.t);
         if (interior(j, h.u)) add(j, h.u);
       }
@@ -375,8 +392,15 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     throw layoutError("no_channel_layer", `No layer is mapped to the role "channel", so there is no channel network to read. Layers in this drawing: ${describeLayers(plan.summaries)}. Name the channel layer in conditions.layers.`, plan);
   }
 
-  // Sort entities by role.
-  const works: Work[] = [];
+  // Sort entities by role. Channel pieces go to a typed-array store, so the drawing's entities can be let go after this stage.
+  const works = new PieceStore(drawing.entities.length);
+  // Layers and source entity types of the stored pieces, by index (layers compared by identity, as objects before).
+  const layers: ResolvedLayer[] = [];
+  const layerIndex = new Map<ResolvedLayer, number>();
+  const indexOfLayer = (l: ResolvedLayer) => layerIndex.get(l) ?? (layers.push(l), layerIndex.set(l, layers.length - 1), layers.length - 1);
+  const typeNames: string[] = [];
+  const typeIndex = new Map<string, number>();
+  const indexOfType = (t: string) => typeIndex.get(t) ?? (typeNames.push(t), typeIndex.set(t, typeNames.length - 1), typeNames.length - 1);
   const portCircles: CircleEntity[] = [];
   const texts: TextEntity[] = [];
   const outlinePaths: PathEntity[] = [];
@@ -430,13 +454,19 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
         continue;
       }
       lastLines++;
+      let li = -1;
+      let ti = -1;
       for (const p of e.pieces) {
         const len = pieceLength(p);
         if (!(len > 0)) continue;
         bboxInto(p, box, 0, 0);
         // grow(box), inline: the one hot call site.
         minX = Math.min(minX, box[0]); minY = Math.min(minY, box[1]); maxX = Math.max(maxX, box[2]); maxY = Math.max(maxY, box[3]);
-        works.push({ p, len, layer, src, curveR: e.minCurveRadius });
+        if (li === -1) {
+          li = indexOfLayer(layer);
+          ti = indexOfType(e.type);
+        }
+        works.push(p, len, li, ti, src, e.minCurveRadius);
       }
     }
   }
@@ -454,7 +484,9 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       const src = drawing.entities.indexOf(list[0]);
       const read = readOutlineLayer(list);
       masks.push({ layer: l.name, ringsM: read.rings.map((ring) => ring.map(([x, y]) => [x * mpu, y * mpu] as [number, number])) });
-      read.pieces.forEach((p, k) => works.push({ p, len: pieceLength(p), layer, src, curveR: read.curveRadii[k] }));
+      const li = indexOfLayer(layer);
+      const ti = indexOfType(drawing.entities[src].type);
+      read.pieces.forEach((p, k) => works.push(p, pieceLength(p), li, ti, src, read.curveRadii[k]));
       const um = (u: number) => fmt(u * mpu * 1e6);
       const ax = read.axis;
       warnings.push({
@@ -476,10 +508,14 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   }
   try {
     const two = new Float64Array(2);
-    for (const w of works) widthsInto(w, mpu, two, 0);
+    for (let i = 0; i < works.n; i++) widthsInto(works, i, layers, mpu, two, 0);
   } catch (e) {
     throw e instanceof LayoutError ? layoutError(e.code, e.message, plan) : e;
   }
+  // The drawing is extractNetwork's own (read there, never returned) and its entities are not needed past this point
+  // (the store holds the channel pieces; ports, texts, outlines and mask shapes are in their own lists): letting the
+  // list go frees the entities and their piece objects before the network is built.
+  drawing.entities = [];
 
   stage("sort by role");
   // Ports and trimming.
@@ -491,51 +527,54 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     ports.forEach((p, i) => boxes.set([p.cx - p.r - snap, p.cy - p.r - snap, p.cx + p.r + snap, p.cy + p.r + snap], 4 * i));
     portGrid = new StaticGrid(Math.max(maxR * 4, snap * 4, 1e-300), boxes);
   }
-  const trimmed: Work[] = [];
-  for (const w of works) {
-    const parts = trimByPorts(w, ports, portGrid);
-    if (parts === null) trimmed.push(w);
-    else for (const t of parts) trimmed.push(t);
+  const trimmed = new PieceStore(works.n);
+  for (let i = 0; i < works.n; i++) {
+    const parts = trimByPorts(works, i, ports, portGrid);
+    if (parts === null) trimmed.pushRow(works, i);
+    else for (const t of parts) trimmed.pushPart(works, i, t.p, t.len);
   }
 
   stage("ports and trimming");
   // T-junctions and crossings.
   const splits = findSplits(trimmed, snap);
   stage("crossings and T-junctions");
-  const pieces: Work[] = [];
-  trimmed.forEach((w, i) => {
+  const pieces = new PieceStore(trimmed.n);
+  for (let i = 0; i < trimmed.n; i++) {
     const ts = splits[i];
     if (ts === null) {
-      pieces.push(w);
-      return;
+      pieces.pushRow(trimmed, i);
+      continue;
     }
     ts.sort((a, b) => a - b);
     let prev = 0;
+    const len = trimmed.len[i];
+    const whole = trimmed.piece(i);
     for (const t of [...ts, 1]) {
-      if ((t - prev) * w.len <= snap && t !== 1) continue;
+      if ((t - prev) * len <= snap && t !== 1) continue;
       if (t - prev <= 0) continue;
-      const p = subPiece(w.p, prev, t);
-      pieces.push({ ...w, p, len: w.len * (t - prev) });
+      const p = subPiece(whole, prev, t);
+      pieces.pushPart(trimmed, i, p, len * (t - prev));
       prev = t;
     }
-  });
+  }
 
   stage("split pieces");
   // Endpoints → nodes (snap merge; ends near a port circle join the port).
-  const nEnds = pieces.length * 2;
+  const nEnds = pieces.n * 2;
   const uf = new UnionFind(nEnds + ports.length);
   const endX = new Float64Array(nEnds);
   const endY = new Float64Array(nEnds);
-  for (let i = 0; i < pieces.length; i++) {
-    const p = pieces[i].p;
-    if (p.kind === "line") {
+  for (let i = 0; i < pieces.n; i++) {
+    if (pieces.isLine(i)) {
       // Exactly pointAt(p, 0) and pointAt(p, 1), without the point objects.
-      const dx = p.x1 - p.x0;
-      const dy = p.y1 - p.y0;
-      endX[2 * i] = p.x0 + dx * 0; endY[2 * i] = p.y0 + dy * 0;
-      endX[2 * i + 1] = p.x0 + dx * 1; endY[2 * i + 1] = p.y0 + dy * 1;
+      const x0 = pieces.g0[i], y0 = pieces.g1[i];
+      const dx = pieces.g2[i] - x0;
+      const dy = pieces.g3[i] - y0;
+      endX[2 * i] = x0 + dx * 0; endY[2 * i] = y0 + dy * 0;
+      endX[2 * i + 1] = x0 + dx * 1; endY[2 * i + 1] = y0 + dy * 1;
       continue;
     }
+    const p = pieces.arc(i);
     const s = startOf(p);
     const e = endOf(p);
     endX[2 * i] = s.x; endY[2 * i] = s.y;
@@ -562,23 +601,26 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
 
   stage("snap endpoints");
   // Duplicates and zero-length pieces.
-  const keep = new Uint8Array(pieces.length).fill(1);
+  const keep = new Uint8Array(pieces.n).fill(1);
   // Pieces by their (unordered) pair of end nodes, chained per pair: only pieces between the same two nodes can be copies.
-  const pairHash = new CellHash(pieces.length);
-  const pairHead = new Int32Array(pieces.length).fill(-1);
-  const pairNext = new Int32Array(pieces.length).fill(-1);
+  const pairHash = new CellHash(pieces.n);
+  const pairHead = new Int32Array(pieces.n).fill(-1);
+  const pairNext = new Int32Array(pieces.n).fill(-1);
   const dupPairs = new Map<string, { x: number; y: number; count: number; types: string }>();
-  pieces.forEach((w, i) => {
+  for (let i = 0; i < pieces.n; i++) {
     const a = uf.find(2 * i);
     const b = uf.find(2 * i + 1);
-    if (a === b && w.len <= 2 * snap) {
+    if (a === b && pieces.len[i] <= 2 * snap) {
       keep[i] = 0;
-      return;
+      continue;
     }
     const slot = a < b ? pairHash.slot(a, b, true) : pairHash.slot(b, a, true);
     let dup = -1;
+    // Piece objects only for the few pieces that share their two end nodes with another.
+    const w = pairHead[slot] === -1 ? null : pieces.piece(i);
     for (let j = pairHead[slot]; j !== -1; j = pairNext[j]) {
-      if (sameGeometry(pieces[j].p, w.p, snap) || sameGeometry(pieces[j].p, reversed(w.p), snap)) {
+      const q = pieces.piece(j);
+      if (sameGeometry(q, w!, snap) || sameGeometry(q, reversed(w!), snap)) {
         dup = j;
         break;
       }
@@ -586,15 +628,17 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     if (dup === -1) {
       pairNext[i] = pairHead[slot];
       pairHead[slot] = i;
-      return;
+      continue;
     }
     keep[i] = 0;
-    const srcKey = `${Math.min(pieces[dup].src, w.src)}:${Math.max(pieces[dup].src, w.src)}`;
-    const m = pointAt(w.p, 0.5);
+    const srcDup = pieces.src[dup];
+    const srcI = pieces.src[i];
+    const srcKey = `${Math.min(srcDup, srcI)}:${Math.max(srcDup, srcI)}`;
+    const m = pointAt(w!, 0.5);
     const d = dupPairs.get(srcKey);
     if (d) d.count++;
-    else dupPairs.set(srcKey, { x: m.x, y: m.y, count: 1, types: `${drawing.entities[pieces[dup].src].type} and ${drawing.entities[w.src].type}` });
-  });
+    else dupPairs.set(srcKey, { x: m.x, y: m.y, count: 1, types: `${typeNames[pieces.type[dup]]} and ${typeNames[pieces.type[i]]}` });
+  }
   let listed = 0;
   for (const d of dupPairs.values()) {
     if (listed++ >= MAX_LISTED_WARNINGS) break;
@@ -603,14 +647,11 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   if (dupPairs.size > MAX_LISTED_WARNINGS) warnings.push({ code: "duplicate_merged", message: `${dupPairs.size - MAX_LISTED_WARNINGS} more duplicated channels were counted once.` });
 
   stage("duplicates");
-  // The drawing is extractNetwork's own (read there, never returned) and its entities are not needed past this point:
-  // letting the list go frees the entity wrappers before the network is built (the works keep the pieces they use).
-  drawing.entities = [];
   // Graph in compressed form: for every node root, the piece ends incident to it (ends 2i, 2i+1 of piece i).
   const nAll = nEnds + ports.length;
   const rootOf = new Int32Array(nEnds).fill(-1);
   const degree = new Int32Array(nAll);
-  for (let i = 0; i < pieces.length; i++) {
+  for (let i = 0; i < pieces.n; i++) {
     if (!keep[i]) continue;
     for (let k = 2 * i; k <= 2 * i + 1; k++) {
       const r = uf.find(k);
@@ -683,8 +724,8 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   // Node kinds: 0 pass-through (no node), else an index into KINDS.
   const KINDS: NodeKind[] = ["port", "port", "junction", "dead_end", "change"];
   // End widths of every piece (metres): index 2i is piece i's start, 2i + 1 its end.
-  const widthCache = new Float64Array(pieces.length * 2);
-  for (let i = 0; i < pieces.length; i++) widthsInto(pieces[i], mpu, widthCache, 2 * i);
+  const widthCache = new Float64Array(pieces.n * 2);
+  for (let i = 0; i < pieces.n; i++) widthsInto(pieces, i, layers, mpu, widthCache, 2 * i);
   const endWidth = (k: number) => widthCache[k];
   const kindOf = new Int8Array(nAll);
   const stops: number[] = [];
@@ -700,7 +741,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       const b = endsAt[offset[root] + 1];
       const wa = endWidth(a);
       const wb = endWidth(b);
-      if (pieces[a >> 1].layer !== pieces[b >> 1].layer || Math.abs(wa - wb) > 1e-6 * Math.max(wa, wb)) kind = 4;
+      if (pieces.layer[a >> 1] !== pieces.layer[b >> 1] || Math.abs(wa - wb) > 1e-6 * Math.max(wa, wb)) kind = 4;
     }
     kindOf[root] = kind;
     if (kind > 0) stops.push(root);
@@ -728,12 +769,12 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   stops.length = 0;
   stops.push(...portStops);
   for (const r of otherStops) stops.push(r);
-  const usedPiece = new Uint8Array(pieces.length);
+  const usedPiece = new Uint8Array(pieces.n);
   const segments: NetworkSegment[] = [];
   // The pieces of the segment being walked and their directions (1: start to end): typed arrays with a count, reused
   // (setting a plain array's length to 0 for each of 20k segments costs more than the walk itself).
-  const chain = new Int32Array(pieces.length);
-  const chainFwd = new Uint8Array(pieces.length);
+  const chain = new Int32Array(pieces.n);
+  const chainFwd = new Uint8Array(pieces.n);
   for (const start of stops) {
     for (let e0 = offset[start]; e0 < offset[start + 1]; e0++) {
       const k0 = endsAt[e0];
@@ -759,7 +800,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
         if (next === -1) break;
         k = next;
       }
-      segments.push(makeSegment(`s${segments.length + 1}`, nodeOf(start), nodeOf(endRoot), chain, chainFwd, n, pieces, widthCache, mpu));
+      segments.push(makeSegment(`s${segments.length + 1}`, nodeOf(start), nodeOf(endRoot), chain, chainFwd, n, pieces, layers, widthCache, mpu));
       if ((segments.length & 1023) === 0) onSample?.();
     }
   }
@@ -804,16 +845,17 @@ function makeSegment(
   chainFwd: Uint8Array,
   /** How many entries of chain and chainFwd belong to this segment. */
   n: number,
-  pieces: Work[],
+  pieces: PieceStore,
+  layers: ResolvedLayer[],
   widthCache: Float64Array,
   mpu: number,
 ): NetworkSegment {
-  const layer = pieces[chain[0]].layer;
+  const layer = layers[pieces.layer[chain[0]]];
   // The path's exact size up front: arrays grown by push keep spare capacity, which 20k short paths would hold on to.
   let nPath = 1;
   for (let c = 0; c < n; c++) {
-    const p = pieces[chain[c]].p;
-    nPath += p.kind === "line" ? 1 : arcSteps(p.sweep);
+    const i = chain[c];
+    nPath += pieces.isLine(i) ? 1 : arcSteps(pieces.g4[i]);
   }
   const path = new Array<[number, number]>(nPath);
   let np = 0;
@@ -826,27 +868,30 @@ function makeSegment(
   let minW = Infinity;
   let maxW = -Infinity;
   for (let c = 0; c < n; c++) {
-    const w = pieces[chain[c]];
+    const i = chain[c];
     const fwd = chainFwd[c] === 1;
-    const p = w.p;
-    const a = widthCache[2 * chain[c]];
-    const b = widthCache[2 * chain[c] + 1];
+    const line = pieces.isLine(i);
+    const len = pieces.len[i];
+    const a = widthCache[2 * i];
+    const b = widthCache[2 * i + 1];
     const w0 = fwd ? a : b;
     const w1 = fwd ? b : a;
+    // Lines: g0…g3 = x0, y0, x1, y1; arcs: g0…g4 = cx, cy, r, a0, sweep, points as pointAt computes them.
+    const g0 = pieces.g0[i], g1 = pieces.g1[i], g2 = pieces.g2[i], g3 = pieces.g3[i], g4 = pieces.g4[i];
     if (np === 0) {
-      if (p.kind === "line") path[np++] = fwd ? [p.x0 * mpu, p.y0 * mpu] : [p.x1 * mpu, p.y1 * mpu];
+      if (line) path[np++] = fwd ? [g0 * mpu, g1 * mpu] : [g2 * mpu, g3 * mpu];
       else {
-        const st = pointAt(p, fwd ? 0 : 1);
-        path[np++] = [st.x * mpu, st.y * mpu];
+        const ang = g3 + g4 * (fwd ? 0 : 1);
+        path[np++] = [(g0 + g2 * Math.cos(ang)) * mpu, (g1 + g2 * Math.sin(ang)) * mpu];
       }
       first = w0;
     }
-    if (p.kind === "line") path[np++] = fwd ? [p.x1 * mpu, p.y1 * mpu] : [p.x0 * mpu, p.y0 * mpu];
+    if (line) path[np++] = fwd ? [g2 * mpu, g3 * mpu] : [g0 * mpu, g1 * mpu];
     else {
-      const steps = arcSteps(p.sweep);
+      const steps = arcSteps(g4);
       for (let k = 1; k <= steps; k++) {
-        const q = pointAt(p, fwd ? k / steps : 1 - k / steps);
-        path[np++] = [q.x * mpu, q.y * mpu];
+        const ang = g3 + g4 * (fwd ? k / steps : 1 - k / steps);
+        path[np++] = [(g0 + g2 * Math.cos(ang)) * mpu, (g1 + g2 * Math.sin(ang)) * mpu];
       }
     }
     // A width profile only when widths vary along the segment.
@@ -855,13 +900,13 @@ function makeSegment(
       const last = profile.at(-1);
       if (!last || last.sM !== s * mpu || last.widthM !== w0) profile.push({ sM: s * mpu, widthM: w0 });
     }
-    s += w.len;
+    s += len;
     if (profile !== null) profile.push({ sM: s * mpu, widthM: w1 });
-    area += ((w0 + w1) / 2) * w.len;
+    area += ((w0 + w1) / 2) * len;
     lastW = w1;
     minW = Math.min(minW, w0, w1);
     maxW = Math.max(maxW, w0, w1);
-    const r = p.kind === "arc" ? p.r : w.curveR;
+    const r = line ? pieces.curveRadius(i) : g2;
     if (r !== null) minR = minR === null ? r : Math.min(minR, r);
   }
   const lengthM = s * mpu;
