@@ -2,10 +2,11 @@
  * Entity handlers registered into dxf-parser for the two entities whose stock
  * handlers drop values a layout needs: POLYLINE/VERTEX widths (codes 40, 41)
  * and SPLINE weights (code 41). They collect the raw groups and interpret them
- * here. LINE, ARC, CIRCLE and LWPOLYLINE get lean copies of dxf-parser's own
- * handlers (same groups read, same values, same errors) that keep only the
- * fields the reader uses. Everything else stays with dxf-parser's handlers.
+ * here. LINE, ARC, CIRCLE and LWPOLYLINE get lean handlers of our own that read
+ * the same values as dxf-parser's stock ones on a well-formed file and keep only
+ * the fields the reader uses. Everything else stays with dxf-parser's handlers.
  */
+import { LayoutError } from "../errors";
 
 interface Group {
   code: number;
@@ -197,37 +198,104 @@ function leanEntity(type: string, vertices: LeanEntity["vertices"]): LeanEntity 
   };
 }
 
+type Point = { x: number; y: number; z?: number };
+type Vertex = NonNullable<LeanEntity["vertices"]>[number];
+
 /**
- * dxf-parser's parsePoint, given the x group just read: y must follow (else the same error), z may.
- * The stock one rewinds to read the x group a second time; the values are the same.
+ * What one entity type takes from its own groups: the entity record, and points under construction. A point starts
+ * at its x group (code c in 10-18) and takes y and z from codes c+10 and c+20 (DXF reference, group codes in
+ * numerical order); LWPOLYLINE vertices start at each 10 (DXF reference, LWPOLYLINE).
  */
-function leanPoint(scanner: Scanner, x: Group): { x: number; y: number; z?: number } {
-  const code = x.code;
-  const y = scanner.next();
-  if (y.code != code + 10) throw new Error("Expected code for point value to be " + (code + 10) + " but got " + y.code + ".");
-  const point: { x: number; y: number; z?: number } = { x: x.value as number, y: y.value as number };
-  const z = scanner.next();
-  if (z.code != code + 20) scanner.rewind();
-  else point.z = z.value as number;
-  return point;
+interface Reading {
+  entity: LeanEntity;
+  first: Point | null;
+  second: Point | null;
+  extrusion: Point | null;
+  declaredVertices: number;
 }
+
+/** One reading reused for every entity (handlers never nest): no extra object per entity. */
+const reading: Reading = { entity: leanEntity("", undefined), first: null, second: null, extrusion: null, declaredVertices: -1 };
 
 /** The layer name last read: entities come in runs on one layer, and each keeps the same string, not a copy of its own. */
 let lastLayerName = "";
 
-/** dxf-parser's checkCommonEntityProperties for the fields the reader uses (the others have no effect on them). */
-function leanCommon(entity: LeanEntity, g: Group, scanner: Scanner): void {
-  switch (g.code) {
-    case 5: entity.handle = g.value as string; break;
-    case 8: entity.layer = g.value === lastLayerName ? lastLayerName : (lastLayerName = g.value as string); break;
-    case 67: entity.inPaperSpace = g.value !== 0; break;
-    case 101: {
-      // An embedded object (AutoCAD 2018): skipped to the next entity, as dxf-parser does.
-      let c = g;
-      while (c.code != 0) c = scanner.next();
-      scanner.rewind();
-      break;
-    }
+/**
+ * The one group loop of the lean handlers: the groups after the entity's type, up to the next code-0 group (left as
+ * the scanner's last group, where dxf-parser's entity loop looks for it). Handle (5), layer (8) and paper-space flag
+ * (67) are common to every entity; from a 101 marker on, the groups belong to an embedded object (AutoCAD 2018) and
+ * are passed over. Everything else goes to the type's own take.
+ */
+function readEntity(scanner: Scanner, entity: LeanEntity, take: (r: Reading, code: number, value: Group["value"]) => void): Reading {
+  const r = reading;
+  r.entity = entity;
+  r.first = r.second = r.extrusion = null;
+  r.declaredVertices = -1;
+  let embedded = false;
+  for (let g = scanner.next(); g.code !== 0; g = scanner.next()) {
+    if (embedded) continue;
+    const code = g.code;
+    if (code === 8) entity.layer = g.value === lastLayerName ? lastLayerName : (lastLayerName = g.value as string);
+    else if (code === 5) entity.handle = g.value as string;
+    else if (code === 67) entity.inPaperSpace = g.value !== 0;
+    else if (code === 101) embedded = true;
+    else take(r, code, g.value);
+  }
+  return r;
+}
+
+/** A point begun by its x value; y stays undefined until its group comes, so a point without one is reported as incomplete. */
+const startPoint = (x: number): Point => ({ x, y: undefined as unknown as number, z: undefined });
+
+function takeLine(r: Reading, code: number, value: Group["value"]): void {
+  const v = value as number;
+  switch (code) {
+    case 10: r.first = startPoint(v); break;
+    case 20: if (r.first) r.first.y = v; break;
+    case 30: if (r.first) r.first.z = v; break;
+    case 11: r.second = startPoint(v); break;
+    case 21: if (r.second) r.second.y = v; break;
+    case 31: if (r.second) r.second.z = v; break;
+    case 210: r.extrusion = startPoint(v); break;
+    case 220: if (r.extrusion) r.extrusion.y = v; break;
+    case 230: if (r.extrusion) r.extrusion.z = v; break;
+  }
+}
+
+/** Degrees to radians as dxf-parser's ARC handler computes it (same rounding, so the same angles to the last bit). */
+const radians = (degrees: number) => (Math.PI / 180) * degrees;
+
+function takeArcOrCircle(r: Reading, code: number, value: Group["value"]): void {
+  const v = value as number;
+  const e = r.entity;
+  switch (code) {
+    case 10: r.first = startPoint(v); break;
+    case 20: if (r.first) r.first.y = v; break;
+    case 30: if (r.first) r.first.z = v; break;
+    case 40: e.radius = v; break;
+    // A CIRCLE has no angles; its extrusion does not change a circle seen from above.
+    case 50: if (e.type === "ARC") e.startAngle = radians(v); break;
+    case 51: if (e.type === "ARC") e.endAngle = radians(v); break;
+    case 230: if (e.type === "ARC") e.extrusionDirectionZ = v; break;
+  }
+}
+
+function takeLwpolyline(r: Reading, code: number, value: Group["value"]): void {
+  const v = value as number;
+  const e = r.entity;
+  const vertices = e.vertices!;
+  const last: Vertex | undefined = vertices[vertices.length - 1];
+  switch (code) {
+    case 10: vertices.push({ x: v, y: undefined as unknown as number }); break;
+    case 20: if (last) last.y = v; break;
+    case 30: if (last) last.z = v; break;
+    case 40: if (last) last.startWidth = v; break;
+    case 41: if (last) last.endWidth = v; break;
+    case 42: if (last && v !== 0) last.bulge = v; break;
+    case 43: if (v !== 0) e.width = v; break;
+    case 70: e.shape = (v & 1) === 1; break;
+    case 90: r.declaredVertices = v; break;
+    case 230: e.extrusionDirectionZ = v; break;
   }
 }
 
@@ -235,122 +303,47 @@ function leanCommon(entity: LeanEntity, g: Group, scanner: Scanner): void {
 export class LeanLine {
   public ForEntityName = "LINE" as const;
   public parseEntity(scanner: Scanner, _head: Group): LeanEntity {
-    const entity = leanEntity("LINE", []);
-    let g = scanner.next();
-    while (!scanner.isEOF()) {
-      if (g.code === 0) break;
-      if (g.code === 10) entity.vertices!.unshift(leanPoint(scanner, g));
-      else if (g.code === 11) entity.vertices!.push(leanPoint(scanner, g));
-      else if (g.code === 210) entity.extrusionDirection = leanPoint(scanner, g);
-      else if (g.code !== 100) leanCommon(entity, g, scanner);
-      g = scanner.next();
-    }
-    return entity;
+    const r = readEntity(scanner, leanEntity("LINE", undefined), takeLine);
+    const e = r.entity;
+    const { first, second } = r;
+    e.vertices = first ? (second ? [first, second] : [first]) : second ? [second] : [];
+    if (r.extrusion) e.extrusionDirection = r.extrusion;
+    return e;
   }
 }
 
 export class LeanArc {
   public ForEntityName = "ARC" as const;
   public parseEntity(scanner: Scanner, _head: Group): LeanEntity {
-    const entity = leanEntity("ARC", undefined);
-    let g = scanner.next();
-    while (!scanner.isEOF()) {
-      if (g.code === 0) break;
-      switch (g.code) {
-        case 10: entity.center = leanPoint(scanner, g); break;
-        case 40: entity.radius = g.value as number; break;
-        case 50: entity.startAngle = (Math.PI / 180) * (g.value as number); break;
-        case 51: entity.endAngle = (Math.PI / 180) * (g.value as number); break;
-        case 230: entity.extrusionDirectionZ = g.value as number; break;
-        case 210: case 220: break;
-        default: leanCommon(entity, g, scanner);
-      }
-      g = scanner.next();
-    }
-    return entity;
+    const r = readEntity(scanner, leanEntity("ARC", undefined), takeArcOrCircle);
+    if (r.first) r.entity.center = r.first;
+    return r.entity;
   }
 }
 
 export class LeanCircle {
   public ForEntityName = "CIRCLE" as const;
   public parseEntity(scanner: Scanner, _head: Group): LeanEntity {
-    const entity = leanEntity("CIRCLE", undefined);
-    let g = scanner.next();
-    while (!scanner.isEOF()) {
-      if (g.code === 0) break;
-      if (g.code === 10) entity.center = leanPoint(scanner, g);
-      else if (g.code === 40) entity.radius = g.value as number;
-      else if (g.code !== 50 && g.code !== 51) leanCommon(entity, g, scanner);
-      g = scanner.next();
-    }
-    return entity;
+    const r = readEntity(scanner, leanEntity("CIRCLE", undefined), takeArcOrCircle);
+    if (r.first) r.entity.center = r.first;
+    return r.entity;
   }
 }
 
 export class LeanLwpolyline {
   public ForEntityName = "LWPOLYLINE" as const;
   public parseEntity(scanner: Scanner, _head: Group): LeanEntity {
-    const entity = leanEntity("LWPOLYLINE", []);
-    let n = 0;
-    let g = scanner.next();
-    while (!scanner.isEOF()) {
-      if (g.code === 0) break;
-      switch (g.code) {
-        case 70: entity.shape = ((g.value as number) & 1) === 1; break;
-        case 90: n = g.value as number; break;
-        case 10: entity.vertices = leanLwVertices(n, scanner); break;
-        case 43: if (g.value !== 0) entity.width = g.value as number; break;
-        case 230: entity.extrusionDirectionZ = g.value as number; break;
-        case 38: case 39: case 210: case 220: break;
-        default: leanCommon(entity, g, scanner);
-      }
-      g = scanner.next();
+    const r = readEntity(scanner, leanEntity("LWPOLYLINE", []), takeLwpolyline);
+    const e = r.entity;
+    const listed = e.vertices!.length;
+    // The count (90) comes before the vertices (DXF reference, LWPOLYLINE): a different number listed means lost lines.
+    if (listed > 0 && r.declaredVertices !== listed) {
+      const declared = r.declaredVertices < 0 ? "no vertex count" : `${r.declaredVertices} vertices`;
+      throw new LayoutError(
+        "entity_incomplete",
+        `An LWPOLYLINE on layer "${e.layer ?? "0"}"${e.handle ? ` (handle ${e.handle})` : ""} declares ${declared} but lists ${listed}: the file is damaged there. Fix or delete the polyline and export again.`,
+      );
     }
-    return entity;
+    return e;
   }
-}
-
-/**
- * dxf-parser's parseLWPolylineVertices, with one difference: on a group that is not a vertex group it steps back
- * one group, not two. Stepping back two re-reads the vertex's last group, which the entity loop ignores, except
- * when that group is the 10 of a vertex without its 20: then the stock handler reads the same vertex for ever
- * (a hung upload). Here that vertex lacks its y and the reader reports the entity as incomplete.
- */
-function leanLwVertices(n: number, scanner: Scanner): NonNullable<LeanEntity["vertices"]> {
-  if (!n || n <= 0) throw Error("n must be greater than 0 verticies");
-  const vertices: NonNullable<LeanEntity["vertices"]> = [];
-  let started = false;
-  let finished = false;
-  let g = scanner.lastReadGroup;
-  for (let i = 0; i < n; i++) {
-    const v = {} as NonNullable<LeanEntity["vertices"]>[number];
-    while (!scanner.isEOF()) {
-      if (g.code === 0 || finished) break;
-      switch (g.code) {
-        case 10:
-          if (started) {
-            finished = true;
-            continue;
-          }
-          v.x = g.value as number;
-          started = true;
-          break;
-        case 20: v.y = g.value as number; break;
-        case 30: v.z = g.value as number; break;
-        case 40: v.startWidth = g.value as number; break;
-        case 41: v.endWidth = g.value as number; break;
-        case 42: if (g.value != 0) v.bulge = g.value as number; break;
-        default:
-          scanner.rewind();
-          if (started) vertices.push(v);
-          return vertices;
-      }
-      g = scanner.next();
-    }
-    vertices.push(v);
-    started = false;
-    finished = false;
-  }
-  scanner.rewind();
-  return vertices;
 }

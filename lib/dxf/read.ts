@@ -12,7 +12,7 @@ import { flattenNurbs, flattenParametric, minRadiusOfPolyline, type Pt } from ".
 import { COUNTED_ONLY_TYPES, countingHandler, LeanArc, LeanCircle, LeanLine, LeanLwpolyline, PolylineWithWidths, SplineWithWeights, type RawPolyline, type RawSpline } from "./handlers";
 import { flattenHatchEdge, HatchWithBoundaries, type RawHatch } from "./hatch";
 import type { ArcPiece, DrawingEntity, DxfDrawing, Piece } from "./types";
-import { TextScanner, type Group, type GroupScanner } from "./scanner";
+import { TextScanner, TRUNCATED_MESSAGE, type Group, type GroupScanner } from "./scanner";
 import { INSUNITS_OTHER_NAMES, INSUNITS_TO_UNIT, METRES_PER_UNIT, type DrawingUnit } from "./units";
 
 /** Largest layout accepted by default, bytes (25 MiB). */
@@ -99,34 +99,100 @@ export function decodeLayout(input: string | Uint8Array, maxBytes = MAX_LAYOUT_B
 }
 
 const SECTION_START = /(^|\n)[ \t]*0[ \t]*\r?\n[ \t]*SECTION[ \t]*\r?\n[ \t]*2[ \t]*\r?\n[ \t]*([^\r\n]*?)[ \t]*\r?\n/g;
-const SECTION_END = /\n[ \t]*0[ \t]*\r?\n[ \t]*ENDSEC[ \t]*(?=\r?\n|$)/g;
 const SECTIONS_READ = new Set(["HEADER", "BLOCKS", "ENTITIES"]);
 
 /**
  * The text with only the sections a layout needs (HEADER, BLOCKS, ENTITIES). The others (TABLES,
  * CLASSES, OBJECTS, …) hold nothing Stokeline reads, and dxf-parser's TABLES reader can loop
  * forever on a damaged table; leaving them out also makes the parse cheaper.
+ * @throws LayoutError truncated_file when a section has no ENDSEC before the end, unreadable_dxf when it has none before
+ * the next section (dxf-parser's LAYER and VPORT table readers never return on such a file; its others read past the cut).
  */
 export function keepLayoutSections(text: string): string {
   const parts: string[] = [];
   let from = 0;
   SECTION_START.lastIndex = 0;
-  for (let m = SECTION_START.exec(text); m; m = SECTION_START.exec(text)) {
-    if (SECTIONS_READ.has(m[2].toUpperCase())) continue;
+  let m = SECTION_START.exec(text);
+  while (m) {
+    const name = m[2];
     const start = m.index + m[1].length;
-    SECTION_END.lastIndex = SECTION_START.lastIndex;
-    const end = SECTION_END.exec(text);
-    if (!end) break; // no ENDSEC: leave the rest to the parser, which reports the truncation
-    parts.push(text.slice(from, start));
-    from = end.index + end[0].length;
-    // Skip the newline after ENDSEC so the next group starts on its own line.
-    if (text[from] === "\r") from++;
-    if (text[from] === "\n") from++;
-    SECTION_START.lastIndex = from === 0 ? 0 : from - 1;
+    const body = SECTION_START.lastIndex;
+    const end = findEndsec(text, body);
+    SECTION_START.lastIndex = body;
+    const next = SECTION_START.exec(text);
+    if (end === null) throw unterminatedSection(name, false);
+    if (next !== null && next.index + next[1].length < end.at) throw unterminatedSection(name, true);
+    if (name.toUpperCase() === "BLOCKS") checkBlockEnds(text, body, end.at);
+    if (!SECTIONS_READ.has(name.toUpperCase())) {
+      parts.push(text.slice(from, start));
+      from = end.after;
+    }
+    m = next;
   }
   if (from === 0) return text;
   parts.push(text.slice(from));
   return parts.join("");
+}
+
+function unterminatedSection(name: string, beforeNext: boolean): LayoutError {
+  const section = name.slice(0, 40) || "unnamed";
+  if (beforeNext) {
+    return new LayoutError(
+      "unreadable_dxf",
+      `The DXF's ${section} section has no end (ENDSEC) before the next section starts: the file is damaged there. Export it again as an ASCII DXF.`,
+    );
+  }
+  return new LayoutError("truncated_file", `The DXF ends in the middle of a section (${section} has no ENDSEC): the file is truncated. Upload the complete file again.`);
+}
+
+const BLOCK_MARK = /(^|\n)[ \t]*0[ \t]*\r?\n[ \t]*(BLOCK|ENDBLK)[ \t]*(?=\r?\n)/g;
+
+/**
+ * Every BLOCK in text[from, to) closed by its ENDBLK before the next BLOCK or the section's end (DXF reference, BLOCKS
+ * section). Without one, dxf-parser reads the block on into the next section and stops only at the EOF marker.
+ * @throws LayoutError unreadable_dxf naming the block.
+ */
+function checkBlockEnds(text: string, from: number, to: number): void {
+  let open: number | null = null;
+  BLOCK_MARK.lastIndex = from === 0 ? 0 : from - 1;
+  for (let m = BLOCK_MARK.exec(text); m && m.index < to; m = BLOCK_MARK.exec(text)) {
+    if (m[2] === "ENDBLK") open = null;
+    else if (open !== null) break;
+    else open = BLOCK_MARK.lastIndex;
+  }
+  if (open === null) return;
+  // The block's name is its header's group 2; the header's lines read in pairs (code, value) up to the next group 0.
+  const lines = text.slice(open, Math.min(to, open + 4000)).split("\n");
+  let name: string | undefined;
+  for (let k = 1; k + 1 < lines.length && name === undefined; k += 2) {
+    const code = lines[k].trim();
+    if (code === "0") break;
+    if (code === "2") name = lines[k + 1].trim();
+  }
+  throw new LayoutError(
+    "unreadable_dxf",
+    `The DXF's block ${name ? `"${name.slice(0, 60)}" ` : ""}has no end (ENDBLK) before the next block or the end of the BLOCKS section: the file is damaged there. Export it again as an ASCII DXF.`,
+  );
+}
+
+const ENDSEC_AT = /[ \t]*0[ \t]*\r?\n[ \t]*ENDSEC[ \t]*(\r?\n|$)/y;
+
+/**
+ * The first ENDSEC group at or after offset from (a code line starting there or later): the offset of its code line
+ * and the offset after its value line, or null. Candidates by indexOf (a regex over a large section is slower), each
+ * checked at its code line.
+ */
+function findEndsec(text: string, from: number): { at: number; after: number } | null {
+  for (let i = text.indexOf("ENDSEC", from); i !== -1; i = text.indexOf("ENDSEC", i + 6)) {
+    const valueLine = text.lastIndexOf("\n", i - 1) + 1;
+    if (valueLine <= from) continue;
+    const codeLine = text.lastIndexOf("\n", valueLine - 2) + 1;
+    if (codeLine < from) continue;
+    ENDSEC_AT.lastIndex = codeLine;
+    const m = ENDSEC_AT.exec(text);
+    if (m) return { at: codeLine, after: codeLine + m[0].length };
+  }
+  return null;
 }
 
 /** A dxf-parser entity handler, as dxf-parser keeps them by entity type name. */
@@ -149,12 +215,12 @@ function newParser(): DxfParser {
   return parser;
 }
 
-/** dxf-parser's message for a file it cannot read, as a LayoutError. */
+/** A failure of the parse as a LayoutError: dxf-parser's message for a file it cannot read, or ours as it is. */
 function parseError(e: unknown): LayoutError {
+  // Our scanner and handlers already answer in our words.
+  if (e instanceof LayoutError) return e;
   const msg = e instanceof Error ? e.message : String(e);
-  if (/Unexpected end of input/i.test(msg)) {
-    return new LayoutError("truncated_file", "The DXF ends in the middle of a section: the file is truncated. Upload the complete file again.");
-  }
+  if (/Unexpected end of input/i.test(msg)) return new LayoutError("truncated_file", TRUNCATED_MESSAGE);
   return new LayoutError("unreadable_dxf", `The DXF could not be read (${msg.slice(0, 200)}). Export it again as an ASCII DXF.`);
 }
 
@@ -183,7 +249,6 @@ function parseText(kept: string): IDxf {
 }
 
 const ENTITIES_START = /(^|\n)[ \t]*0[ \t]*\r?\n[ \t]*SECTION[ \t]*\r?\n[ \t]*2[ \t]*\r?\n[ \t]*ENTITIES[ \t]*\r?\n/g;
-const ENDSEC_AT = /[ \t]*0[ \t]*\r?\n[ \t]*ENDSEC[ \t]*(\r?\n|$)/y;
 const LONE_CR = /\r(?!\n)/g;
 /** An entity type no DXF uses: a one-entity ENTITIES section of it stands in for the real one in the header-and-blocks parse. */
 const PROBE_TYPE = "$STOKELINE_ENTITIES_PROBE";
@@ -211,22 +276,10 @@ function splitEntities(kept: string): EntitiesSplit | null {
   if (!start) return null;
   const sectionAt = start.index + start[1].length;
   const from = start.index + start[0].length;
-  // The first ENDSEC group after the section start: candidates by indexOf (a regex over the whole section is slower), each checked at its code line.
-  let endsecAt = -1;
-  let after = -1;
-  for (let i = kept.indexOf("ENDSEC", from); i !== -1 && endsecAt === -1; i = kept.indexOf("ENDSEC", i + 6)) {
-    const valueLine = kept.lastIndexOf("\n", i - 1) + 1;
-    if (valueLine <= from) continue;
-    const codeLine = kept.lastIndexOf("\n", valueLine - 2) + 1;
-    if (codeLine < from) continue;
-    ENDSEC_AT.lastIndex = codeLine;
-    const m = ENDSEC_AT.exec(kept);
-    if (m) {
-      endsecAt = codeLine;
-      after = codeLine + m[0].length;
-    }
-  }
-  if (endsecAt === -1) return null;
+  const endsec = findEndsec(kept, from);
+  if (endsec === null) return null;
+  const endsecAt = endsec.at;
+  const after = endsec.after;
   // The scanner splits lines at LF (and CRLF); dxf-parser also at a lone CR.
   LONE_CR.lastIndex = from;
   if (LONE_CR.test(kept)) return null;

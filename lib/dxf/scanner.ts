@@ -1,10 +1,10 @@
 /**
- * A DXF group scanner over a range of the text itself, with the semantics of
- * dxf-parser's DxfArrayScanner (same values, same errors, same rewind), so
- * dxf-parser's entity handlers and ours run on it unchanged.
- * Written here because dxf-parser's scanner needs the whole file split into a
- * line array first: half of its parse time and a string per line held to the end.
+ * A DXF group scanner over a range of the text itself: the groups and values dxf-parser's scanner gives for the same
+ * lines, so dxf-parser's entity handlers and ours run on it unchanged; its failures are LayoutErrors in our words.
+ * Written here because dxf-parser's scanner needs the whole file split into a line array first: half of its parse
+ * time and a string per line held to the end.
  */
+import { LayoutError } from "../errors";
 
 export interface Group {
   code: number;
@@ -19,36 +19,40 @@ export interface GroupScanner {
   lastReadGroup: Group;
 }
 
-/** DXF group value by code range, exactly as dxf-parser's parseGroupValue (DXF reference, group code value types). */
-function parseGroupValue(code: number, value: string): number | string | boolean {
-  if (code <= 9) return value;
-  if (code >= 10 && code <= 59) return parseFloat(value);
-  if (code >= 60 && code <= 99) return parseInt(value);
-  if (code >= 100 && code <= 109) return value;
-  if (code >= 110 && code <= 149) return parseFloat(value);
-  if (code >= 160 && code <= 179) return parseInt(value);
-  if (code >= 210 && code <= 239) return parseFloat(value);
-  if (code >= 270 && code <= 289) return parseInt(value);
-  if (code >= 290 && code <= 299) {
-    if (value === "0") return false;
-    if (value === "1") return true;
-    throw TypeError("String '" + value + "' cannot be cast to Boolean type");
-  }
-  if (code >= 300 && code <= 369) return value;
-  if (code >= 370 && code <= 389) return parseInt(value);
-  if (code >= 390 && code <= 399) return value;
-  if (code >= 400 && code <= 409) return parseInt(value);
-  if (code >= 410 && code <= 419) return value;
-  if (code >= 420 && code <= 429) return parseInt(value);
-  if (code >= 430 && code <= 439) return value;
-  if (code >= 440 && code <= 459) return parseInt(value);
-  if (code >= 460 && code <= 469) return parseFloat(value);
-  if (code >= 470 && code <= 481) return value;
-  if (code === 999) return value;
-  if (code >= 1000 && code <= 1009) return value;
-  if (code >= 1010 && code <= 1059) return parseFloat(value);
-  if (code >= 1060 && code <= 1071) return parseInt(value);
-  return value;
+/** The user-facing answer to a file that ends (or reaches its EOF marker) inside a section. */
+export const TRUNCATED_MESSAGE = "The DXF ends in the middle of a section: the file is truncated. Upload the complete file again.";
+
+const TEXT = 0;
+const REAL = 1;
+const INTEGER = 2;
+const FLAG = 3;
+const LAST_TYPED_CODE = 1071;
+
+/**
+ * Value type of each group code 0…1071 (DXF reference, "Group code value types": reals 10-59, 110-149, 210-239,
+ * 460-469, 1010-1059; integers 60-79, 90-99, 160-179, 270-289, 370-389, 400-409, 420-429, 440-459, 1060-1071;
+ * boolean flags 290-299; text elsewhere). Codes the reference leaves unassigned are kept as text.
+ */
+const VALUE_TYPE = ((): Uint8Array => {
+  const table = new Uint8Array(LAST_TYPED_CODE + 1); // TEXT by default
+  const ranges: [number, number, number][] = [
+    [10, 59, REAL], [110, 149, REAL], [210, 239, REAL], [460, 469, REAL], [1010, 1059, REAL],
+    [60, 79, INTEGER], [90, 99, INTEGER], [160, 179, INTEGER], [270, 289, INTEGER], [370, 389, INTEGER],
+    [400, 409, INTEGER], [420, 429, INTEGER], [440, 459, INTEGER], [1060, 1071, INTEGER],
+    [290, 299, FLAG],
+  ];
+  for (const [first, last, type] of ranges) table.fill(type, first, last + 1);
+  return table;
+})();
+
+/** A boolean flag group (290-299) holds 0 or 1; anything else means the lines are out of step. */
+function readFlag(code: number, value: string): boolean {
+  if (value === "1") return true;
+  if (value === "0") return false;
+  throw new LayoutError(
+    "unreadable_dxf",
+    `The DXF has a yes/no group (code ${code}) whose value is "${value.slice(0, 40)}" instead of 0 or 1: the file is damaged there. Export it again as an ASCII DXF.`,
+  );
 }
 
 const HISTORY = 16;
@@ -56,6 +60,8 @@ const HISTORY = 16;
 /**
  * Groups of text[from, to). Lines end at "\n" or "\r\n"; the caller makes sure the range holds no lone "\r"
  * (dxf-parser also splits there). Rewinds up to 16 groups, more than any handler uses (dxf-parser's use at most 2).
+ * next() throws LayoutError truncated_file when the range ends before the EOF group, or when asked for a group
+ * after it (a section still open at the EOF marker).
  */
 export class TextScanner {
   public lastReadGroup!: Group;
@@ -90,25 +96,23 @@ export class TextScanner {
   next(): Group {
     const text = this.text;
     const start = this.pos;
-    const codeEnd = start < this.to ? text.indexOf("\n", start) : -1;
-    if (codeEnd === -1 || codeEnd >= this.to || this.eof) {
-      if (!this.eof) {
-        // dxf-parser's message names the last line: "" after a final newline, undefined past the end.
-        const last = start < this.to ? text.slice(start, this.to) : start === this.to ? "" : undefined;
-        throw new Error("Unexpected end of input: EOF group not read before end of file. Ended on code " + last);
-      }
-      throw new Error("Cannot call 'next' after EOF group has been read");
-    }
+    // A group needs its code line ended inside the range; past the EOF group nothing belongs to the drawing.
+    const codeEnd = this.eof || start >= this.to ? -1 : text.indexOf("\n", start);
+    if (codeEnd === -1 || codeEnd >= this.to) throw new LayoutError("truncated_file", TRUNCATED_MESSAGE);
     let valueEnd = text.indexOf("\n", codeEnd + 1);
     if (valueEnd === -1 || valueEnd > this.to) valueEnd = this.to;
     const code = parseCode(text, start, codeEnd > start && text.charCodeAt(codeEnd - 1) === 13 ? codeEnd - 1 : codeEnd);
     const vEnd = valueEnd > codeEnd + 1 && text.charCodeAt(valueEnd - 1) === 13 ? valueEnd - 1 : valueEnd;
+    // Codes outside the table (negative, NaN, above 1071) are text.
+    const type = code >= 0 && code <= LAST_TYPED_CODE ? VALUE_TYPE[code] : TEXT;
     let value: number | string | boolean;
-    if ((code >= 10 && code <= 59) || (code >= 210 && code <= 239)) {
+    if (type === REAL) {
       const fast = parseDecimal(text, codeEnd + 1, vEnd);
-      // Numbers parse the same with or without surrounding white space (parseFloat skips it; trim removes the same set).
+      // parseFloat and parseInt skip the same leading white space trim() removes, and ignore what follows the number.
       value = fast === fast ? fast : parseFloat(text.slice(codeEnd + 1, vEnd));
-    } else value = parseGroupValue(code, text.slice(codeEnd + 1, vEnd).trim());
+    } else if (type === INTEGER) value = parseInt(text.slice(codeEnd + 1, vEnd));
+    else if (type === FLAG) value = readFlag(code, text.slice(codeEnd + 1, vEnd).trim());
+    else value = text.slice(codeEnd + 1, vEnd).trim();
     this.starts[this.count % HISTORY] = start;
     this.count++;
     this.pos = valueEnd + 1;
