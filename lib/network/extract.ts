@@ -110,6 +110,8 @@ function nameports(circles: CircleEntity[], texts: TextEntity[], warnings: Layou
 
 const scratch: number[] = [];
 const scratchBox = new Float64Array(4);
+const NO_PIECES = new PieceStore(0);
+const NO_UNION = new UnionFind(0);
 const scratchLine: LinePiece = { kind: "line", x0: 0, y0: 0, x1: 0, y1: 0, w0: null, w1: null };
 
 interface Part {
@@ -360,6 +362,59 @@ function chainOutline(paths: PathEntity[], circles: CircleEntity[], tol: number,
   return polys;
 }
 
+interface DuplicatePair {
+  x: number;
+  y: number;
+  count: number;
+  types: string;
+}
+
+/**
+ * Zero-length pieces and duplicates (same end nodes, same geometry either way round): keep[i] = 0 for those dropped,
+ * and the merged copies by pair of source entities. A function of its own so its hash and chains are freed on return.
+ */
+function findDuplicates(pieces: PieceStore, uf: UnionFind, snap: number, typeNames: string[]): { keep: Uint8Array; dupPairs: Map<string, DuplicatePair> } {
+  const keep = new Uint8Array(pieces.n).fill(1);
+  // Pieces by their (unordered) pair of end nodes, chained per pair: only pieces between the same two nodes can be copies.
+  const pairHash = new CellHash(pieces.n);
+  const pairHead = new Int32Array(pieces.n).fill(-1);
+  const pairNext = new Int32Array(pieces.n).fill(-1);
+  const dupPairs = new Map<string, DuplicatePair>();
+  for (let i = 0; i < pieces.n; i++) {
+    const a = uf.find(2 * i);
+    const b = uf.find(2 * i + 1);
+    if (a === b && pieces.len[i] <= 2 * snap) {
+      keep[i] = 0;
+      continue;
+    }
+    const slot = a < b ? pairHash.slot(a, b, true) : pairHash.slot(b, a, true);
+    let dup = -1;
+    // Piece objects only for the few pieces that share their two end nodes with another.
+    const w = pairHead[slot] === -1 ? null : pieces.piece(i);
+    for (let j = pairHead[slot]; j !== -1; j = pairNext[j]) {
+      const q = pieces.piece(j);
+      if (sameGeometry(q, w!, snap) || sameGeometry(q, reversed(w!), snap)) {
+        dup = j;
+        break;
+      }
+    }
+    if (dup === -1) {
+      pairNext[i] = pairHead[slot];
+      pairHead[slot] = i;
+      continue;
+    }
+    keep[i] = 0;
+    const srcDup = pieces.src[dup];
+    const srcI = pieces.src[i];
+    const srcKey = `${Math.min(srcDup, srcI)}:${Math.max(srcDup, srcI)}`;
+    const m = pointAt(w!, 0.5);
+    const d = dupPairs.get(srcKey);
+    if (d) d.count++;
+    else dupPairs.set(srcKey, { x: m.x, y: m.y, count: 1, types: `${typeNames[pieces.type[dup]]} and ${typeNames[pieces.type[i]]}` });
+  }
+  return { keep, dupPairs };
+}
+
 /**
  * Build the channel network from a DXF layout and the geometry conditions.
  * @param input DXF text or bytes.
@@ -393,7 +448,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   }
 
   // Sort entities by role. Channel pieces go to a typed-array store, so the drawing's entities can be let go after this stage.
-  const works = new PieceStore(drawing.entities.length);
+  let works = new PieceStore(drawing.entities.length);
   // Layers and source entity types of the stored pieces, by index (layers compared by identity, as objects before).
   const layers: ResolvedLayer[] = [];
   const layerIndex = new Map<ResolvedLayer, number>();
@@ -527,16 +582,18 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     ports.forEach((p, i) => boxes.set([p.cx - p.r - snap, p.cy - p.r - snap, p.cx + p.r + snap, p.cy + p.r + snap], 4 * i));
     portGrid = new StaticGrid(Math.max(maxR * 4, snap * 4, 1e-300), boxes);
   }
-  const trimmed = new PieceStore(works.n);
+  let trimmed = new PieceStore(works.n);
   for (let i = 0; i < works.n; i++) {
     const parts = trimByPorts(works, i, ports, portGrid);
     if (parts === null) trimmed.pushRow(works, i);
     else for (const t of parts) trimmed.pushPart(works, i, t.p, t.len);
   }
+  // Each stage's store is let go once the next is filled (they are most of the builder's own memory).
+  works = NO_PIECES;
 
   stage("ports and trimming");
   // T-junctions and crossings.
-  const splits = findSplits(trimmed, snap);
+  let splits = findSplits(trimmed, snap);
   stage("crossings and T-junctions");
   const pieces = new PieceStore(trimmed.n);
   for (let i = 0; i < trimmed.n; i++) {
@@ -557,11 +614,13 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       prev = t;
     }
   }
+  trimmed = NO_PIECES;
+  splits = [];
 
   stage("split pieces");
   // Endpoints → nodes (snap merge; ends near a port circle join the port).
   const nEnds = pieces.n * 2;
-  const uf = new UnionFind(nEnds + ports.length);
+  let uf = new UnionFind(nEnds + ports.length);
   const endX = new Float64Array(nEnds);
   const endY = new Float64Array(nEnds);
   for (let i = 0; i < pieces.n; i++) {
@@ -601,44 +660,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
 
   stage("snap endpoints");
   // Duplicates and zero-length pieces.
-  const keep = new Uint8Array(pieces.n).fill(1);
-  // Pieces by their (unordered) pair of end nodes, chained per pair: only pieces between the same two nodes can be copies.
-  const pairHash = new CellHash(pieces.n);
-  const pairHead = new Int32Array(pieces.n).fill(-1);
-  const pairNext = new Int32Array(pieces.n).fill(-1);
-  const dupPairs = new Map<string, { x: number; y: number; count: number; types: string }>();
-  for (let i = 0; i < pieces.n; i++) {
-    const a = uf.find(2 * i);
-    const b = uf.find(2 * i + 1);
-    if (a === b && pieces.len[i] <= 2 * snap) {
-      keep[i] = 0;
-      continue;
-    }
-    const slot = a < b ? pairHash.slot(a, b, true) : pairHash.slot(b, a, true);
-    let dup = -1;
-    // Piece objects only for the few pieces that share their two end nodes with another.
-    const w = pairHead[slot] === -1 ? null : pieces.piece(i);
-    for (let j = pairHead[slot]; j !== -1; j = pairNext[j]) {
-      const q = pieces.piece(j);
-      if (sameGeometry(q, w!, snap) || sameGeometry(q, reversed(w!), snap)) {
-        dup = j;
-        break;
-      }
-    }
-    if (dup === -1) {
-      pairNext[i] = pairHead[slot];
-      pairHead[slot] = i;
-      continue;
-    }
-    keep[i] = 0;
-    const srcDup = pieces.src[dup];
-    const srcI = pieces.src[i];
-    const srcKey = `${Math.min(srcDup, srcI)}:${Math.max(srcDup, srcI)}`;
-    const m = pointAt(w!, 0.5);
-    const d = dupPairs.get(srcKey);
-    if (d) d.count++;
-    else dupPairs.set(srcKey, { x: m.x, y: m.y, count: 1, types: `${typeNames[pieces.type[dup]]} and ${typeNames[pieces.type[i]]}` });
-  }
+  const { keep, dupPairs } = findDuplicates(pieces, uf, snap, typeNames);
   let listed = 0;
   for (const d of dupPairs.values()) {
     if (listed++ >= MAX_LISTED_WARNINGS) break;
@@ -719,6 +741,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       warnings.push({ code: "port_unconnected", message: `Port ${port.name} touches no channel; it is left out of the network.`, at: at(port.cx, port.cy) });
     }
   }
+  uf = NO_UNION;
 
   stage("graph and components");
   // Node kinds: 0 pass-through (no node), else an index into KINDS.
