@@ -112,6 +112,25 @@ const scratch: number[] = [];
 const scratchBox = new Float64Array(4);
 const NO_PIECES = new PieceStore(0);
 const NO_UNION = new UnionFind(0);
+const NO_F64 = new Float64Array(0);
+const NO_I32 = new Int32Array(0);
+const scratchEnd = new Float64Array(2);
+
+/** End k of the stored pieces (2i: start of piece i, 2i + 1: its end) into out[0], out[1], exactly as the snap stage computes it. */
+function endPointInto(pieces: PieceStore, k: number, out: Float64Array): void {
+  const i = k >> 1;
+  const t = k & 1;
+  if (pieces.isLine(i)) {
+    const x0 = pieces.g0[i], y0 = pieces.g1[i];
+    out[0] = x0 + (pieces.g2[i] - x0) * t;
+    out[1] = y0 + (pieces.g3[i] - y0) * t;
+    return;
+  }
+  // pointAt(arc, 0 or 1), as startOf and endOf.
+  const a = pieces.g3[i] + pieces.g4[i] * t;
+  out[0] = pieces.g0[i] + pieces.g2[i] * Math.cos(a);
+  out[1] = pieces.g1[i] + pieces.g2[i] * Math.sin(a);
+}
 const scratchLine: LinePiece = { kind: "line", x0: 0, y0: 0, x1: 0, y1: 0, w0: null, w1: null };
 
 interface Part {
@@ -360,6 +379,55 @@ function chainOutline(paths: PathEntity[], circles: CircleEntity[], tol: number,
     }
   }
   return polys;
+}
+
+/** Piece ends by node root in compressed rows (ends 2i, 2i + 1 of piece i); rootOf is −1 for the ends of dropped pieces. */
+function incidence(nPieces: number, keep: Uint8Array, uf: UnionFind, nAll: number): { rootOf: Int32Array; degree: Int32Array; offset: Int32Array; endsAt: Int32Array } {
+  const nEnds = 2 * nPieces;
+  const rootOf = new Int32Array(nEnds).fill(-1);
+  const degree = new Int32Array(nAll);
+  for (let i = 0; i < nPieces; i++) {
+    if (!keep[i]) continue;
+    for (let k = 2 * i; k <= 2 * i + 1; k++) {
+      const r = uf.find(k);
+      rootOf[k] = r;
+      degree[r]++;
+    }
+  }
+  const offset = new Int32Array(nAll + 1);
+  for (let r = 0; r < nAll; r++) offset[r + 1] = offset[r] + degree[r];
+  const fill = offset.slice(0, nAll);
+  const endsAt = new Int32Array(offset[nAll]);
+  for (let k = 0; k < nEnds; k++) if (rootOf[k] >= 0) endsAt[fill[rootOf[k]]++] = k;
+  return { rootOf, degree, offset, endsAt };
+}
+
+/** Connected components of the node roots (comp −1: no piece end) and whether each reaches a port. */
+function findComponents(nAll: number, degree: Int32Array, offset: Int32Array, endsAt: Int32Array, rootOf: Int32Array, portOfRoot: Map<number, number>): { comp: Int32Array; compHasPort: boolean[] } {
+  const comp = new Int32Array(nAll).fill(-1);
+  const compHasPort: boolean[] = [];
+  const stack = new Int32Array(nAll);
+  for (let root = 0; root < nAll; root++) {
+    if (degree[root] === 0 || comp[root] !== -1) continue;
+    const id = compHasPort.length;
+    let hasPort = false;
+    let top = 0;
+    stack[top++] = root;
+    comp[root] = id;
+    while (top > 0) {
+      const r = stack[--top];
+      if (portOfRoot.has(r)) hasPort = true;
+      for (let e = offset[r]; e < offset[r + 1]; e++) {
+        const other = rootOf[endsAt[e] ^ 1];
+        if (comp[other] === -1) {
+          comp[other] = id;
+          stack[top++] = other;
+        }
+      }
+    }
+    compHasPort.push(hasPort);
+  }
+  return { comp, compHasPort };
 }
 
 interface DuplicatePair {
@@ -623,8 +691,8 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   // Endpoints → nodes (snap merge; ends near a port circle join the port).
   const nEnds = pieces.n * 2;
   let uf = new UnionFind(nEnds + ports.length);
-  const endX = new Float64Array(nEnds);
-  const endY = new Float64Array(nEnds);
+  let endX = new Float64Array(nEnds);
+  let endY = new Float64Array(nEnds);
   for (let i = 0; i < pieces.n; i++) {
     if (pieces.isLine(i)) {
       // Exactly pointAt(p, 0) and pointAt(p, 1), without the point objects.
@@ -673,47 +741,15 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   stage("duplicates");
   // Graph in compressed form: for every node root, the piece ends incident to it (ends 2i, 2i+1 of piece i).
   const nAll = nEnds + ports.length;
-  const rootOf = new Int32Array(nEnds).fill(-1);
-  const degree = new Int32Array(nAll);
-  for (let i = 0; i < pieces.n; i++) {
-    if (!keep[i]) continue;
-    for (let k = 2 * i; k <= 2 * i + 1; k++) {
-      const r = uf.find(k);
-      rootOf[k] = r;
-      degree[r]++;
-    }
-  }
-  const offset = new Int32Array(nAll + 1);
-  for (let r = 0; r < nAll; r++) offset[r + 1] = offset[r] + degree[r];
-  const fill = offset.slice(0, nAll);
-  const endsAt = new Int32Array(offset[nAll]);
-  for (let k = 0; k < nEnds; k++) if (rootOf[k] >= 0) endsAt[fill[rootOf[k]]++] = k;
+  const graph = incidence(pieces.n, keep, uf, nAll);
+  const { rootOf, offset, endsAt } = graph;
+  let degree = graph.degree;
   const firstEnd = (r: number) => endsAt[offset[r]];
 
   // Connected components; keep those that reach a port.
-  const comp = new Int32Array(nAll).fill(-1);
-  const compHasPort: boolean[] = [];
-  const stack = new Int32Array(nAll);
-  for (let root = 0; root < nAll; root++) {
-    if (degree[root] === 0 || comp[root] !== -1) continue;
-    const id = compHasPort.length;
-    let hasPort = false;
-    let top = 0;
-    stack[top++] = root;
-    comp[root] = id;
-    while (top > 0) {
-      const r = stack[--top];
-      if (portOfRoot.has(r)) hasPort = true;
-      for (let e = offset[r]; e < offset[r + 1]; e++) {
-        const other = rootOf[endsAt[e] ^ 1];
-        if (comp[other] === -1) {
-          comp[other] = id;
-          stack[top++] = other;
-        }
-      }
-    }
-    compHasPort.push(hasPort);
-  }
+  const found = findComponents(nAll, degree, offset, endsAt, rootOf, portOfRoot);
+  let comp = found.comp;
+  const compHasPort = found.compHasPort;
   if (ports.length === 0) {
     const portLayers = plan.summaries.filter((l) => l.role === "port").map((l) => l.name);
     throw layoutError(
@@ -744,6 +780,9 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     }
   }
   uf = NO_UNION;
+  // Node positions are read from the pieces from here on (nodeOf): the end coordinates are let go.
+  endX = NO_F64;
+  endY = NO_F64;
 
   stage("graph and components");
   // Node kinds: 0 pass-through (no node), else an index into KINDS.
@@ -771,6 +810,10 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     kindOf[root] = kind;
     if (kind > 0) stops.push(root);
   }
+  // Not needed by the segment walk: freed before the network is built (a root's degree is also offset[r + 1] − offset[r]).
+  comp = NO_I32;
+  degree = NO_I32;
+  pieces.releaseWidthsAndSources();
 
   stage("node kinds");
   // Walk segments between stop nodes.
@@ -784,7 +827,8 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     if (pi !== undefined) nodes.push({ id, xM: ports[pi].cx * mpu, yM: ports[pi].cy * mpu, kind: "port", port: ports[pi].name });
     else {
       const k = firstEnd(root);
-      nodes.push({ id, xM: endX[k] * mpu, yM: endY[k] * mpu, kind: KINDS[kindOf[root]], port: null });
+      endPointInto(pieces, k, scratchEnd);
+      nodes.push({ id, xM: scratchEnd[0] * mpu, yM: scratchEnd[1] * mpu, kind: KINDS[kindOf[root]], port: null });
     }
     return id;
   };
@@ -833,7 +877,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   stage("segments");
   const networkPorts: NetworkPort[] = [];
   for (const [root, pi] of portOfRoot) {
-    if (degree[root] === 0) continue;
+    if (offset[root + 1] === offset[root]) continue;
     const id = nodeOf(root);
     networkPorts.push({ name: ports[pi].name, node: id, xM: ports[pi].cx * mpu, yM: ports[pi].cy * mpu, radiusM: ports[pi].r * mpu });
   }

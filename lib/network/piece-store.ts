@@ -155,6 +155,17 @@ export class PieceStore {
     this.flags[k] = from.flags[i];
   }
 
+  /**
+   * Let go of the drawn widths and the source columns (the segment walk needs neither once the end widths are
+   * computed); drawnW0, drawnW1, piece, line and arc must not be called afterwards.
+   */
+  releaseWidthsAndSources(): void {
+    this.w0 = new Float64Array(0);
+    this.w1 = new Float64Array(0);
+    this.type = new Uint8Array(0);
+    this.src = new Int32Array(0);
+  }
+
   isLine(i: number): boolean {
     return this.kind[i] === 0;
   }
