@@ -344,9 +344,9 @@ function streamEntities(ctx: Ctx, kept: string, split: EntitiesSplit, onSample?:
           continue;
         }
         const entity = handler.parseEntity(scanner, curr);
+        if (!entity) throw new Error(`The ${String(curr.value)} reader returned no entity`);
         curr = scanner.lastReadGroup;
-        // dxf-parser's ensureHandle.
-        if (!entity) throw new TypeError("entity cannot be undefined or null");
+        // An entity without a handle gets the next number, as in the whole parse.
         if (!entity.handle) (entity as { handle: unknown }).handle = nextHandle++;
         if ((++read & 1023) === 0) onSample?.();
         if (walkError === null) {

@@ -1,7 +1,7 @@
 /**
  * The streamed read of the ENTITIES section (our group scanner and lean handlers, each entity walked as it is
  * read) against dxf-parser itself: the same drawing, or the same error, as when dxf-parser parses the whole
- * text first; and the lean LINE/ARC/CIRCLE/LWPOLYLINE handlers read the same values as dxf-parser's stock ones.
+ * text first (where that parse stops on dxf-parser's own scanner, the same stop in our words); and the lean LINE/ARC/CIRCLE/LWPOLYLINE handlers read the same values as dxf-parser's stock ones.
  * The reference is dxf-parser 1.1.2 (the package the reader is built on); damaged copies are cut and garbled
  * with deterministic pseudo-random choices so a failure can be replayed.
  */
