@@ -845,6 +845,9 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   // (setting a plain array's length to 0 for each of 20k segments costs more than the walk itself).
   const chain = new Int32Array(pieces.n);
   const chainFwd = new Uint8Array(pieces.n);
+  // The first path end seen at each node (by node index): later segment ends there with exactly the same coordinates
+  // share that point array instead of holding their own (a node of degree 4 then holds one, not four).
+  const nodeEnds: [number, number][] = [];
   for (const start of stops) {
     for (let e0 = offset[start]; e0 < offset[start + 1]; e0++) {
       const k0 = endsAt[e0];
@@ -870,7 +873,11 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
         if (next === -1) break;
         k = next;
       }
-      segments.push(makeSegment(`s${segments.length + 1}`, nodeOf(start), nodeOf(endRoot), chain, chainFwd, n, pieces, layers, widthCache, mpu));
+      const seg = makeSegment(`s${segments.length + 1}`, nodeOf(start), nodeOf(endRoot), chain, chainFwd, n, pieces, layers, widthCache, mpu);
+      const path = seg.path;
+      path[0] = sharedEnd(nodeEnds, nodeIndex[start], path[0]);
+      path[path.length - 1] = sharedEnd(nodeEnds, nodeIndex[endRoot], path[path.length - 1]);
+      segments.push(seg);
       if ((segments.length & 1023) === 0) onSample?.();
     }
   }
@@ -902,6 +909,16 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     mappingProposed: plan.mappingProposed,
     ...(masks.length > 0 ? { masks } : {}),
   };
+}
+
+/** The point array already held at node `node` when p has exactly its coordinates (Object.is: −0 stays −0), else p, remembered when the node has none. */
+function sharedEnd(ends: [number, number][], node: number, p: [number, number]): [number, number] {
+  const held = ends[node];
+  if (held === undefined) {
+    ends[node] = p;
+    return p;
+  }
+  return Object.is(held[0], p[0]) && Object.is(held[1], p[1]) ? held : p;
 }
 
 /** Steps for drawing an arc: every ≤ 5°, at least two. */
