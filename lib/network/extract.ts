@@ -223,7 +223,7 @@ function findSplits(store: PieceStore, snap: number): (number[] | null)[] {
   const L = new Float64Array(n);
   const boxes = new Float64Array(n * 4);
   // Arc objects for the geometry helpers (arcs are few); lines are read from the store.
-  const arcs: (ArcPiece | undefined)[] = [];
+  const arcs = new Array<ArcPiece | undefined>(n);
   for (let i = 0; i < n; i++) {
     if (store.isLine(i)) {
       isLine[i] = 1;
