@@ -873,11 +873,9 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
         if (next === -1) break;
         k = next;
       }
-      const seg = makeSegment(`s${segments.length + 1}`, nodeOf(start), nodeOf(endRoot), chain, chainFwd, n, pieces, layers, widthCache, mpu);
-      const path = seg.path;
-      path[0] = sharedEnd(nodeEnds, nodeIndex[start], path[0]);
-      path[path.length - 1] = sharedEnd(nodeEnds, nodeIndex[endRoot], path[path.length - 1]);
-      segments.push(seg);
+      const from = nodeOf(start);
+      const to = nodeOf(endRoot);
+      segments.push(makeSegment(`s${segments.length + 1}`, from, to, chain, chainFwd, n, pieces, layers, widthCache, mpu, nodeEnds, nodeIndex[start], nodeIndex[endRoot]));
       if ((segments.length & 1023) === 0) onSample?.();
     }
   }
@@ -911,14 +909,16 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   };
 }
 
-/** The point array already held at node `node` when p has exactly its coordinates (Object.is: −0 stays −0), else p, remembered when the node has none. */
-function sharedEnd(ends: [number, number][], node: number, p: [number, number]): [number, number] {
+/**
+ * The point array already held at node `node` when (x, y) are exactly its coordinates (Object.is: −0 stays −0),
+ * else a new one, remembered when the node has none (no throw-away array for the shared case).
+ */
+function endAt(ends: [number, number][], node: number, x: number, y: number): [number, number] {
   const held = ends[node];
-  if (held === undefined) {
-    ends[node] = p;
-    return p;
-  }
-  return Object.is(held[0], p[0]) && Object.is(held[1], p[1]) ? held : p;
+  if (held !== undefined && Object.is(held[0], x) && Object.is(held[1], y)) return held;
+  const p: [number, number] = [x, y];
+  if (held === undefined) ends[node] = p;
+  return p;
 }
 
 /** Steps for drawing an arc: every ≤ 5°, at least two. */
@@ -936,6 +936,10 @@ function makeSegment(
   layers: ResolvedLayer[],
   widthCache: Float64Array,
   mpu: number,
+  /** Path ends held per node index (see endAt), and the indices of the from and to nodes. */
+  ends: [number, number][],
+  fromNode: number,
+  toNode: number,
 ): NetworkSegment {
   const layer = layers[pieces.layer[chain[0]]];
   // The path's exact size up front: arrays grown by push keep spare capacity, which 20k short paths would hold on to.
@@ -966,19 +970,25 @@ function makeSegment(
     // Lines: g0…g3 = x0, y0, x1, y1; arcs: g0…g4 = cx, cy, r, a0, sweep, points as pointAt computes them.
     const g0 = pieces.g0[i], g1 = pieces.g1[i], g2 = pieces.g2[i], g3 = pieces.g3[i], g4 = pieces.g4[i];
     if (np === 0) {
-      if (line) path[np++] = fwd ? [g0 * mpu, g1 * mpu] : [g2 * mpu, g3 * mpu];
+      if (line) path[np++] = fwd ? endAt(ends, fromNode, g0 * mpu, g1 * mpu) : endAt(ends, fromNode, g2 * mpu, g3 * mpu);
       else {
         const ang = g3 + g4 * (fwd ? 0 : 1);
-        path[np++] = [(g0 + g2 * Math.cos(ang)) * mpu, (g1 + g2 * Math.sin(ang)) * mpu];
+        path[np++] = endAt(ends, fromNode, (g0 + g2 * Math.cos(ang)) * mpu, (g1 + g2 * Math.sin(ang)) * mpu);
       }
       first = w0;
     }
-    if (line) path[np++] = fwd ? [g2 * mpu, g3 * mpu] : [g0 * mpu, g1 * mpu];
-    else {
+    const lastPiece = c === n - 1;
+    if (line) {
+      const x = fwd ? g2 * mpu : g0 * mpu;
+      const y = fwd ? g3 * mpu : g1 * mpu;
+      path[np++] = lastPiece ? endAt(ends, toNode, x, y) : [x, y];
+    } else {
       const steps = arcSteps(g4);
       for (let k = 1; k <= steps; k++) {
         const ang = g3 + g4 * (fwd ? k / steps : 1 - k / steps);
-        path[np++] = [(g0 + g2 * Math.cos(ang)) * mpu, (g1 + g2 * Math.sin(ang)) * mpu];
+        const x = (g0 + g2 * Math.cos(ang)) * mpu;
+        const y = (g1 + g2 * Math.sin(ang)) * mpu;
+        path[np++] = lastPiece && k === steps ? endAt(ends, toNode, x, y) : [x, y];
       }
     }
     // A width profile only when widths vary along the segment.
