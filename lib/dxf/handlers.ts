@@ -312,23 +312,20 @@ export class LeanLine {
   }
 }
 
-export class LeanArc {
-  public ForEntityName = "ARC" as const;
-  public parseEntity(scanner: Scanner, _head: Group): LeanEntity {
-    const r = readEntity(scanner, leanEntity("ARC", undefined), takeArcOrCircle);
-    if (r.first) r.entity.center = r.first;
-    return r.entity;
-  }
+/** ARC and CIRCLE read the same groups (centre, radius, angles); one handler class for each name. */
+function arcOrCircleHandler(name: "ARC" | "CIRCLE") {
+  return class {
+    public ForEntityName = name;
+    public parseEntity(scanner: Scanner, _head: Group): LeanEntity {
+      const r = readEntity(scanner, leanEntity(name, undefined), takeArcOrCircle);
+      if (r.first) r.entity.center = r.first;
+      return r.entity;
+    }
+  };
 }
 
-export class LeanCircle {
-  public ForEntityName = "CIRCLE" as const;
-  public parseEntity(scanner: Scanner, _head: Group): LeanEntity {
-    const r = readEntity(scanner, leanEntity("CIRCLE", undefined), takeArcOrCircle);
-    if (r.first) r.entity.center = r.first;
-    return r.entity;
-  }
-}
+export const LeanArc = arcOrCircleHandler("ARC");
+export const LeanCircle = arcOrCircleHandler("CIRCLE");
 
 export class LeanLwpolyline {
   public ForEntityName = "LWPOLYLINE" as const;

@@ -5,6 +5,7 @@
  * arrays keep the drawing's own piece objects from being held past the sort by role.
  */
 import type { ArcPiece, LinePiece, Piece } from "../dxf/types";
+import { grownCopy } from "../typed-arrays";
 
 const W0_NULL = 1;
 const W1_NULL = 2;
@@ -54,35 +55,20 @@ export class PieceStore {
 
   private grow(): void {
     const c = this.kind.length * 2;
-    const f64 = (a: Float64Array) => {
-      const b = new Float64Array(c);
-      b.set(a);
-      return b;
-    };
-    const i32 = (a: Int32Array) => {
-      const b = new Int32Array(c);
-      b.set(a);
-      return b;
-    };
-    const u8 = (a: Uint8Array) => {
-      const b = new Uint8Array(c);
-      b.set(a);
-      return b;
-    };
-    this.kind = u8(this.kind);
-    this.g0 = f64(this.g0);
-    this.g1 = f64(this.g1);
-    this.g2 = f64(this.g2);
-    this.g3 = f64(this.g3);
-    this.g4 = f64(this.g4);
-    this.w0 = f64(this.w0);
-    this.w1 = f64(this.w1);
-    this.len = f64(this.len);
-    this.curveR = f64(this.curveR);
-    this.layer = i32(this.layer);
-    this.type = u8(this.type);
-    this.src = i32(this.src);
-    this.flags = u8(this.flags);
+    this.kind = grownCopy(this.kind, c);
+    this.g0 = grownCopy(this.g0, c);
+    this.g1 = grownCopy(this.g1, c);
+    this.g2 = grownCopy(this.g2, c);
+    this.g3 = grownCopy(this.g3, c);
+    this.g4 = grownCopy(this.g4, c);
+    this.w0 = grownCopy(this.w0, c);
+    this.w1 = grownCopy(this.w1, c);
+    this.len = grownCopy(this.len, c);
+    this.curveR = grownCopy(this.curveR, c);
+    this.layer = grownCopy(this.layer, c);
+    this.type = grownCopy(this.type, c);
+    this.src = grownCopy(this.src, c);
+    this.flags = grownCopy(this.flags, c);
   }
 
   /** Store the geometry and widths of p at row i (row already counted). */

@@ -13,6 +13,7 @@
  * is tested against the region.
  */
 import { Delaunay } from "d3-delaunay";
+import { grownCopy } from "../typed-arrays";
 import { orientRings, orientedArea, Region, WallGrid, type OrientedRings, type Ring } from "./region";
 
 /** Samples per smallest width (common practice for Voronoi medial axes: a few samples across the narrowest gap). */
@@ -143,23 +144,13 @@ class SampleBuilder {
 
   private grow(): void {
     const c = this.x.length * 2;
-    const f = (a: Float64Array) => {
-      const b = new Float64Array(c);
-      b.set(a);
-      return b;
-    };
-    const i = (a: Int32Array) => {
-      const b = new Int32Array(c);
-      b.set(a);
-      return b;
-    };
-    this.x = f(this.x);
-    this.y = f(this.y);
-    this.pos = f(this.pos);
-    this.ring = i(this.ring);
-    this.k = i(this.k);
-    this.e0 = i(this.e0);
-    this.e1 = i(this.e1);
+    this.x = grownCopy(this.x, c);
+    this.y = grownCopy(this.y, c);
+    this.pos = grownCopy(this.pos, c);
+    this.ring = grownCopy(this.ring, c);
+    this.k = grownCopy(this.k, c);
+    this.e0 = grownCopy(this.e0, c);
+    this.e1 = grownCopy(this.e1, c);
   }
 
   push(x: number, y: number, ring: number, pos: number, e0: number, e1: number): void {
