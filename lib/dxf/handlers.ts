@@ -8,18 +8,7 @@
  */
 import { LayoutError } from "../errors";
 
-interface Group {
-  code: number;
-  value: number | string | boolean;
-}
-
-/** The part of dxf-parser's DxfArrayScanner these handlers use. */
-interface Scanner {
-  next(): Group;
-  isEOF(): boolean;
-  rewind(numberOfGroups?: number): void;
-  lastReadGroup: Group;
-}
+import type { Group, GroupScanner as Scanner } from "./scanner";
 
 export interface RawPolylineVertex {
   x: number;

@@ -7,16 +7,7 @@
  */
 import { flattenNurbs, flattenParametric, type Pt } from "./curves";
 
-interface Group {
-  code: number;
-  value: number | string | boolean;
-}
-
-interface Scanner {
-  next(): Group;
-  isEOF(): boolean;
-  lastReadGroup: Group;
-}
+import type { Group, GroupScanner as Scanner } from "./scanner";
 
 export interface HatchVertex {
   x: number;

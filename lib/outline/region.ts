@@ -132,6 +132,18 @@ export function orientedArea(o: OrientedRings): number {
   return o.rings.reduce((acc, r) => acc + signedArea(r), 0);
 }
 
+/**
+ * The cells of a uniform grid over [minX, maxX] × [minY, maxY] with a margin of one cell: at most ~4 million
+ * cells, whatever the cell size asked for.
+ */
+function gridFrame(minX: number, minY: number, maxX: number, maxY: number, cellSize: number): { cell: number; ox: number; oy: number; nx: number; ny: number } {
+  const extent = Math.max(maxX - minX, maxY - minY, 1e-300);
+  const cell = Math.max(cellSize, extent / 2048);
+  const ox = minX - cell;
+  const oy = minY - cell;
+  return { cell, ox, oy, nx: Math.ceil((maxX - ox) / cell) + 2, ny: Math.ceil((maxY - oy) / cell) + 2 };
+}
+
 export class Region {
   /** Rings oriented so the filled side is on the left of every edge. */
   readonly rings: Ring[];
@@ -177,13 +189,7 @@ export class Region {
       }
     }
     this.minX = minX; this.minY = minY; this.maxX = maxX; this.maxY = maxY;
-    const extent = Math.max(maxX - minX, maxY - minY, 1e-300);
-    // At most ~4 million cells, whatever the cell size asked for.
-    this.cell = Math.max(cellSize, extent / 2048);
-    this.ox = minX - this.cell;
-    this.oy = minY - this.cell;
-    this.nx = Math.ceil((maxX - this.ox) / this.cell) + 2;
-    this.ny = Math.ceil((maxY - this.oy) / this.cell) + 2;
+    ({ cell: this.cell, ox: this.ox, oy: this.oy, nx: this.nx, ny: this.ny } = gridFrame(minX, minY, maxX, maxY, cellSize));
     const nCells = this.nx * this.ny;
     const counts = new Int32Array(nCells + 1);
     const forCells = (e: number, f: (c: number) => void) => {
@@ -320,12 +326,7 @@ export class WallGrid {
     if (!Number.isFinite(minX)) minX = minY = maxX = maxY = 0;
     this.width = maxX - minX;
     this.height = maxY - minY;
-    const extent = Math.max(maxX - minX, maxY - minY, 1e-300);
-    this.cell = Math.max(cellSize, extent / 2048);
-    this.ox = minX - this.cell;
-    this.oy = minY - this.cell;
-    this.nx = Math.ceil((maxX - this.ox) / this.cell) + 2;
-    this.ny = Math.ceil((maxY - this.oy) / this.cell) + 2;
+    ({ cell: this.cell, ox: this.ox, oy: this.oy, nx: this.nx, ny: this.ny } = gridFrame(minX, minY, maxX, maxY, cellSize));
     const n = segs.length / 4;
     const counts = new Int32Array(this.nx * this.ny + 1);
     for (let e = 0; e < n; e++) {
