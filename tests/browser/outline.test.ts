@@ -5,30 +5,23 @@
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, BrowserContext, Page } from "playwright-core";
-import { BASE_URL, launch, signIn, snap } from "./support";
+import type { Browser } from "playwright-core";
+import { launch, Sessions, snap } from "./support";
 
 let browser: Browser;
-const contexts: BrowserContext[] = [];
+const sessions = new Sessions(() => browser);
 beforeAll(async () => {
   browser = await launch();
 });
 afterAll(async () => {
-  for (const c of contexts) await c.close();
+  await sessions.closeAll();
   await browser?.close();
 });
 
-async function as(email: string): Promise<Page> {
-  const context = await browser.newContext({ baseURL: BASE_URL, viewport: { width: 1440, height: 900 } });
-  contexts.push(context);
-  const page = await context.newPage();
-  await signIn(page, email);
-  return page;
-}
 
 describe("an outline layout end to end", () => {
   it("uploads, maps and analyses a mask-drawn serpentine; the drawing shows the mask and the centrelines", async () => {
-    const page = await as("designer@brookmere.test");
+    const page = await sessions.signedIn("designer@brookmere.test");
     const me = await (await page.request.get("/api/v1/me")).json();
     const workspaceId = me.workspaces.find((w: { slug: string }) => w.slug === "brookmere").id;
     const chipRes = await page.request.post(`/api/v1/workspaces/${workspaceId}/chips`, { data: { name: `Mask serpentine MS-${Date.now() % 100000}`, purpose: "Serpentine drawn as a filled mask" } });

@@ -7,33 +7,22 @@
 import { readFileSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, BrowserContext, Page } from "playwright-core";
+import type { Browser, Page } from "playwright-core";
 import { MODEL_CAUTIONS } from "@/lib/analysis/cautions";
-import { BASE_URL, launch, signIn, snap } from "./support";
+import { launch, Sessions, snap } from "./support";
 import { looksLikePdf, pdfText } from "../lib/reports/pdf-text";
 
 let browser: Browser;
-const contexts: BrowserContext[] = [];
+const sessions = new Sessions(() => browser);
 
 beforeAll(async () => {
   browser = await launch();
 });
 afterAll(async () => {
-  for (const c of contexts) await c.close().catch(() => undefined);
+  await sessions.closeAll();
   await browser?.close();
 });
 
-async function context(): Promise<BrowserContext> {
-  const c = await browser.newContext({ baseURL: BASE_URL, viewport: { width: 1440, height: 900 }, acceptDownloads: true });
-  contexts.push(c);
-  return c;
-}
-
-async function as(email: string): Promise<Page> {
-  const page = await (await context()).newPage();
-  await signIn(page, email);
-  return page;
-}
 
 const EDIT_CONTROLS = /upload a revision|upload the first layout|new chip|create chip|map the layers|add an operating point|submit for review/i;
 
@@ -43,7 +32,7 @@ async function editControlCount(page: Page): Promise<number> {
 
 describe("the lead's portfolio, trends, brief and share links", () => {
   it("lead: portfolio → trends → brief PDF → share link created, opened, revoked (404/410); no edit controls", async () => {
-    const page = await as("lead@brookmere.test");
+    const page = await sessions.signedIn("lead@brookmere.test", { acceptDownloads: true });
     await page.getByRole("navigation").getByRole("link", { name: "Portfolio" }).click();
     await page.waitForURL(/\/w\/brookmere\/portfolio$/);
     await page.getByRole("heading", { level: 1, name: "Portfolio" }).waitFor();
@@ -115,7 +104,7 @@ describe("the lead's portfolio, trends, brief and share links", () => {
     expect(shareUrl).toMatch(/\/share\/[A-Za-z0-9_-]{43}$/);
     const sharePath = new URL(shareUrl).pathname;
 
-    const stranger = await (await context()).newPage();
+    const stranger = await (await sessions.context({ acceptDownloads: true })).newPage();
     const opened = await stranger.goto(sharePath);
     expect(opened?.status()).toBe(200);
     await stranger.getByTestId("brief").waitFor();
@@ -135,7 +124,7 @@ describe("the lead's portfolio, trends, brief and share links", () => {
   });
 
   it("the lead's calls to mutating routes (chip create, upload, review steps) answer 403", async () => {
-    const page = await as("lead@brookmere.test");
+    const page = await sessions.signedIn("lead@brookmere.test", { acceptDownloads: true });
     const chips = await page.request.get("/api/v1/workspaces/1/chips");
     const chipId = ((await chips.json()) as { chips: { id: number }[] }).chips[0].id;
     const create = await page.request.post("/api/v1/workspaces/1/chips", { data: { name: "Lead's own chip" } });

@@ -6,29 +6,21 @@
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, BrowserContext, Page } from "playwright-core";
-import { BASE_URL, DEMO_PASSWORD, launch, signIn, snap } from "./support";
+import type { Browser, Page } from "playwright-core";
+import { DEMO_PASSWORD, launch, Sessions, snap } from "./support";
 import { TEE_LAYERS as LAYERS, teeForm as form, BOND_FLAG as BOND, PUMP_FLAG as PUMP } from "@/tests/support/tee-fixture";
 
 let browser: Browser;
-const contexts: BrowserContext[] = [];
+const sessions = new Sessions(() => browser);
 
 beforeAll(async () => {
   browser = await launch();
 });
 afterAll(async () => {
-  for (const c of contexts) await c.close().catch(() => undefined);
+  await sessions.closeAll();
   await browser?.close();
 });
 
-/** A signed-in page at 1440×900 (the size the screenshots are judged at). */
-async function as(email: string): Promise<Page> {
-  const context = await browser.newContext({ baseURL: BASE_URL, viewport: { width: 1440, height: 900 } });
-  contexts.push(context);
-  const page = await context.newPage();
-  await signIn(page, email);
-  return page;
-}
 
 
 async function statusOf(page: Page): Promise<string | null> {
@@ -42,7 +34,7 @@ async function waitForStatus(page: Page, status: string): Promise<void> {
 describe("review and sign-off, end to end", () => {
   it("runs designer → fluidics reviewer → designer's fix → pass → fab clearance, with mail and a frozen revision", async () => {
     // Designer: a chip, its revision, the layer map and a hard-driven operating point, through the API.
-    const designer = await as("designer@brookmere.test");
+    const designer = await sessions.signedIn("designer@brookmere.test");
     const me = await (await designer.request.get("/api/v1/me")).json();
     const workspaceId = me.workspaces.find((w: { slug: string }) => w.slug === "brookmere").id;
     const chipRes = await designer.request.post(`/api/v1/workspaces/${workspaceId}/chips`, { data: { name: `Brookmere tee BT-${Date.now() % 100000}`, purpose: "Splitter for the review walk-through" } });
@@ -70,7 +62,7 @@ describe("review and sign-off, end to end", () => {
     await waitForStatus(designer, "with_fluidics");
 
     // 2. The fluidics reviewer finds it in the queue, waives the pump flag and marks the bond flag must-fix.
-    const reviewer = await as("reviewer@brookmere.test");
+    const reviewer = await sessions.signedIn("reviewer@brookmere.test");
     await reviewer.goto("/w/brookmere/review");
     const row = reviewer.getByTestId("queue-fluidics").getByRole("link", { name: /revision 1/ }).last();
     await snap(reviewer, "review-queue-1440");
@@ -109,7 +101,7 @@ describe("review and sign-off, end to end", () => {
     await waitForStatus(reviewer, "with_fab");
 
     // 5. The fab liaison clears it, first with a wrong password (refused), then signing correctly.
-    const fab = await as("fab@brookmere.test");
+    const fab = await sessions.signedIn("fab@brookmere.test");
     await fab.goto("/w/brookmere/review");
     await fab.getByTestId("queue-fab").getByRole("link", { name: /revision 1/ }).last().click();
     await fab.waitForURL(new RegExp(`${reviewUrl}$`));
@@ -152,7 +144,7 @@ describe("review and sign-off, end to end", () => {
     expect(await csv.text()).toContain("review.cleared");
 
     // 8. The e-mails, in the admin's outbox: review requested (fluidics, then fab), mentioned, cleared (designer and lead).
-    const admin = await as("admin@brookmere.test");
+    const admin = await sessions.signedIn("admin@brookmere.test");
     await admin.goto("/w/brookmere/admin/outbox");
     const outbox = await admin.locator("main").innerText();
     const chipName = (await (await designer.request.get(`/api/v1/chips/${chipId}`)).json()).chip.name as string;

@@ -33,6 +33,32 @@ export async function freshPage(browser: Browser): Promise<{ context: BrowserCon
   return { context, page };
 }
 
+/**
+ * The contexts one test file opens at 1440×900 (the size the screenshots are judged at), each with its own
+ * cookies, closed together in afterAll. Takes the browser lazily: it is launched in beforeAll.
+ */
+export class Sessions {
+  private readonly open: BrowserContext[] = [];
+  constructor(private readonly browser: () => Browser) {}
+
+  async context(options: { acceptDownloads?: boolean } = {}): Promise<BrowserContext> {
+    const context = await this.browser().newContext({ baseURL: BASE_URL, viewport: { width: 1440, height: 900 }, ...options });
+    this.open.push(context);
+    return context;
+  }
+
+  /** A page in a new context, signed in as email through the real form. */
+  async signedIn(email: string, options: { acceptDownloads?: boolean } = {}): Promise<Page> {
+    const page = await (await this.context(options)).newPage();
+    await signIn(page, email);
+    return page;
+  }
+
+  async closeAll(): Promise<void> {
+    for (const c of this.open.splice(0)) await c.close().catch(() => undefined);
+  }
+}
+
 /** Signs in through the real form and waits until the workspace shell shows. */
 export async function signIn(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
   await page.goto("/sign-in");
