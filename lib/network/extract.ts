@@ -611,7 +611,8 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       masks.push({ layer: l.name, ringsM: read.rings.map((ring) => ring.map(([x, y]) => [x * mpu, y * mpu] as [number, number])) });
       const li = indexOfLayer(layer);
       const ti = indexOfType(drawing.entities[src].type);
-      read.pieces.forEach((p, k) => works.push(p, pieceLength(p), li, ti, src, read.curveRadii[k]));
+      const ids = read.profiles.map((pr) => works.profiles.add(pr.s, pr.w));
+      read.pieces.forEach((p, k) => works.pushProfiled(p, pieceLength(p), li, ti, src, read.curveRadii[k], ids[read.pieceProfile[k]], read.pieceS[2 * k], read.pieceS[2 * k + 1]));
       const um = (u: number) => fmt(u * mpu * 1e6);
       const ax = read.axis;
       warnings.push({
@@ -652,7 +653,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     ports.forEach((p, i) => boxes.set([p.cx - p.r - snap, p.cy - p.r - snap, p.cx + p.r + snap, p.cy + p.r + snap], 4 * i));
     portGrid = new StaticGrid(Math.max(maxR * 4, snap * 4, 1e-300), boxes);
   }
-  let trimmed = new PieceStore(works.n);
+  let trimmed = new PieceStore(works.n, works.profiles);
   for (let i = 0; i < works.n; i++) {
     const parts = trimByPorts(works, i, ports, portGrid);
     if (parts === null) trimmed.pushRow(works, i);
@@ -665,7 +666,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   // T-junctions and crossings.
   let splits = findSplits(trimmed, snap);
   stage("crossings and T-junctions");
-  const pieces = new PieceStore(trimmed.n);
+  const pieces = new PieceStore(trimmed.n, trimmed.profiles);
   for (let i = 0; i < trimmed.n; i++) {
     const ts = splits[i];
     if (ts === null) {
@@ -921,6 +922,10 @@ function endAt(ends: [number, number][], node: number, x: number, y: number): [n
   return p;
 }
 
+/** A piece's width points (fractions along it and widths, metres), reused for every piece of every segment. */
+const profF: number[] = [];
+const profW: number[] = [];
+
 /** Steps for drawing an arc: every ≤ 5°, at least two. */
 const arcSteps = (sweep: number) => Math.max(2, Math.ceil(Math.abs(sweep) / (Math.PI / 36)));
 
@@ -991,18 +996,33 @@ function makeSegment(
         path[np++] = lastPiece && k === steps ? endAt(ends, toNode, x, y) : [x, y];
       }
     }
-    // A width profile only when widths vary along the segment.
-    if (profile === null && (w0 !== first || w1 !== first)) profile = s === 0 ? [] : [{ sM: 0, widthM: first }, { sM: s * mpu, widthM: first }];
-    if (profile !== null) {
-      const last = profile.at(-1);
-      if (!last || last.sM !== s * mpu || last.widthM !== w0) profile.push({ sM: s * mpu, widthM: w0 });
+    // The piece's widths: linear from w0 to w1, or through its profile's points (outline centrelines).
+    profF.length = profW.length = 0;
+    profF.push(0);
+    profW.push(w0);
+    const pid = pieces.prof1[i] - 1;
+    if (pid >= 0) {
+      const m = pieces.profiles.pointsBetween(pid, fwd ? pieces.ps0[i] : pieces.ps1[i], fwd ? pieces.ps1[i] : pieces.ps0[i], profF, profW);
+      for (let q = 1; q <= m; q++) profW[q] *= mpu;
+    }
+    profF.push(1);
+    profW.push(w1);
+    for (let q = 0; q + 1 < profF.length; q++) {
+      const wa = profW[q], wb = profW[q + 1];
+      const sa = s + len * profF[q], sb = s + len * profF[q + 1];
+      // A width profile only when widths vary along the segment.
+      if (profile === null && (wa !== first || wb !== first)) profile = sa === 0 ? [] : [{ sM: 0, widthM: first }, { sM: sa * mpu, widthM: first }];
+      if (profile !== null) {
+        const last = profile.at(-1);
+        if (!last || last.sM !== sa * mpu || last.widthM !== wa) profile.push({ sM: sa * mpu, widthM: wa });
+        profile.push({ sM: sb * mpu, widthM: wb });
+      }
+      area += ((wa + wb) / 2) * (sb - sa);
+      minW = Math.min(minW, wa, wb);
+      maxW = Math.max(maxW, wa, wb);
     }
     s += len;
-    if (profile !== null) profile.push({ sM: s * mpu, widthM: w1 });
-    area += ((w0 + w1) / 2) * len;
     lastW = w1;
-    minW = Math.min(minW, w0, w1);
-    maxW = Math.max(maxW, w0, w1);
     const r = line ? pieces.curveRadius(i) : g2;
     if (r !== null) minR = minR === null ? r : Math.min(minR, r);
   }

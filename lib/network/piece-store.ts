@@ -7,6 +7,66 @@
 import type { ArcPiece, LinePiece, Piece } from "../dxf/types";
 import { grownCopy } from "../typed-arrays";
 
+/**
+ * Width profiles along outline centrelines (lib/outline): a centreline path's widths at many points, so that the
+ * network builder can take the path as a few straight pieces (its shape) while each piece keeps the widths along
+ * it. Positions and widths in drawing units, positions increasing.
+ */
+export class WidthProfiles {
+  private readonly s: Float64Array[] = [];
+  private readonly w: Float64Array[] = [];
+
+  /** Register a profile; returns its id. */
+  add(s: Float64Array, w: Float64Array): number {
+    this.s.push(s);
+    this.w.push(w);
+    return this.s.length - 1;
+  }
+
+  /** Index of the last profile point at or before position at (0 when before the first). */
+  private before(id: number, at: number): number {
+    const s = this.s[id];
+    let lo = 0, hi = s.length - 1;
+    if (at >= s[hi]) return hi;
+    while (hi - lo > 1) {
+      const mid = (lo + hi) >> 1;
+      if (s[mid] <= at) lo = mid;
+      else hi = mid;
+    }
+    return lo;
+  }
+
+  /** Width of profile id at position at, linear between its points (held flat beyond its ends). */
+  widthAt(id: number, at: number): number {
+    const s = this.s[id], w = this.w[id];
+    const k = this.before(id, at);
+    if (k === s.length - 1 || at <= s[0]) return w[at <= s[0] ? 0 : k];
+    const span = s[k + 1] - s[k];
+    return span > 0 ? w[k] + ((w[k + 1] - w[k]) * (at - s[k])) / span : w[k];
+  }
+
+  /**
+   * The profile's own points strictly between positions a and b (either order), in the order a → b, as fractions
+   * of the way from a to b and widths, appended to f and w; returns how many.
+   */
+  pointsBetween(id: number, a: number, b: number, f: number[], w: number[]): number {
+    const s = this.s[id], ws = this.w[id];
+    const lo = Math.min(a, b), hi = Math.max(a, b), span = b - a;
+    if (!(hi > lo)) return 0;
+    let first = this.before(id, lo);
+    if (s[first] <= lo) first++;
+    let last = first;
+    while (last < s.length && s[last] < hi) last++;
+    const n = last - first;
+    for (let q = 0; q < n; q++) {
+      const k = a <= b ? first + q : last - 1 - q;
+      f.push((s[k] - a) / span);
+      w.push(ws[k]);
+    }
+    return n;
+  }
+}
+
 const W0_NULL = 1;
 const W1_NULL = 2;
 const CURVE_NULL = 4;
@@ -34,9 +94,21 @@ export class PieceStore {
   src: Int32Array;
   /** Bits: 1 w0 null, 2 w1 null, 4 curveR null. */
   flags: Uint8Array;
+  /** Width profile of the row (an id in `profiles` plus one; 0: none, the widths are linear from w0 to w1). */
+  prof1: Int32Array;
+  /** Positions along that profile at the row's start and end (drawing units). */
+  ps0: Float64Array;
+  ps1: Float64Array;
 
-  constructor(capacity: number) {
+  /**
+   * @param capacity rows to make room for (the store grows by doubling beyond it).
+   * @param profiles the width profiles rows may refer to; stores filled from one another share one table.
+   */
+  constructor(capacity: number, readonly profiles: WidthProfiles = new WidthProfiles()) {
     const c = Math.max(16, capacity);
+    this.prof1 = new Int32Array(c);
+    this.ps0 = new Float64Array(c);
+    this.ps1 = new Float64Array(c);
     this.kind = new Uint8Array(c);
     this.g0 = new Float64Array(c);
     this.g1 = new Float64Array(c);
@@ -69,6 +141,9 @@ export class PieceStore {
     this.type = grownCopy(this.type, c);
     this.src = grownCopy(this.src, c);
     this.flags = grownCopy(this.flags, c);
+    this.prof1 = grownCopy(this.prof1, c);
+    this.ps0 = grownCopy(this.ps0, c);
+    this.ps1 = grownCopy(this.ps1, c);
   }
 
   /** Store the geometry and widths of p at row i (row already counted). */
@@ -106,6 +181,26 @@ export class PieceStore {
     this.src[i] = src;
     if (curveR === null) this.flags[i] |= CURVE_NULL;
     else this.curveR[i] = curveR;
+    this.prof1[i] = 0;
+  }
+
+  /**
+   * Append a straight piece whose widths follow profile `profile` from position s0 (its start) to s1 (its end);
+   * its w0 and w1 are set to the profile's widths there.
+   */
+  pushProfiled(p: LinePiece, len: number, layer: number, type: number, src: number, curveR: number | null, profile: number, s0: number, s1: number): void {
+    this.push(p, len, layer, type, src, curveR);
+    const i = this.n - 1;
+    this.setProfile(i, profile, s0, s1);
+  }
+
+  private setProfile(i: number, profile: number, s0: number, s1: number): void {
+    this.prof1[i] = profile + 1;
+    this.ps0[i] = s0;
+    this.ps1[i] = s1;
+    this.w0[i] = this.profiles.widthAt(profile, s0);
+    this.w1[i] = this.profiles.widthAt(profile, s1);
+    this.flags[i] &= ~(W0_NULL | W1_NULL);
   }
 
   /** Append a part of row i of `from`: new geometry and length, the same layer, source and curve radius. */
@@ -119,6 +214,17 @@ export class PieceStore {
     this.src[k] = from.src[i];
     this.curveR[k] = from.curveR[i];
     this.flags[k] |= from.flags[i] & CURVE_NULL;
+    this.prof1[k] = 0;
+    const pid = from.prof1[i] - 1;
+    if (pid >= 0 && p.kind === "line" && from.kind[i] === 0) {
+      // The part's ends as fractions along row i's line; the profile positions follow (the widths with them).
+      const ax = from.g0[i], ay = from.g1[i], dx = from.g2[i] - ax, dy = from.g3[i] - ay;
+      const l2 = dx * dx + dy * dy;
+      const t0 = l2 > 0 ? ((p.x0 - ax) * dx + (p.y0 - ay) * dy) / l2 : 0;
+      const t1 = l2 > 0 ? ((p.x1 - ax) * dx + (p.y1 - ay) * dy) / l2 : 1;
+      const a = from.ps0[i], b = from.ps1[i];
+      this.setProfile(k, pid, a + (b - a) * t0, a + (b - a) * t1);
+    }
   }
 
   /** Append row i of `from` unchanged. */
@@ -139,6 +245,9 @@ export class PieceStore {
     this.type[k] = from.type[i];
     this.src[k] = from.src[i];
     this.flags[k] = from.flags[i];
+    this.prof1[k] = from.prof1[i];
+    this.ps0[k] = from.ps0[i];
+    this.ps1[k] = from.ps1[i];
   }
 
   /**

@@ -11,10 +11,18 @@ import type { Ring } from "./region";
 const CIRCLE_SIDES = 96;
 
 export interface OutlineLayerResult {
-  /** Centreline pieces whose w0/w1 carry the local width (twice the wall distance), drawing units. */
+  /**
+   * Centreline pieces: each path's shape (its points within an eighth of the tolerance step, collinear points
+   * dropped), drawing units; w0/w1 carry the local width (twice the wall distance) at the piece's ends.
+   */
   pieces: LinePiece[];
   /** Smallest bend radius of the path each piece belongs to (drawing units), null where straight. */
   curveRadii: (number | null)[];
+  /** Each path's width profile: positions along it from its first point and widths, drawing units. */
+  profiles: { s: Float64Array; w: Float64Array }[];
+  /** For each piece, its path's profile, and its start and end positions along it (2 per piece). */
+  pieceProfile: Int32Array;
+  pieceS: Float64Array;
   /** The medial axis and the tolerances it used. */
   axis: MedialAxisResult;
   /** The rings read, drawing units (for drawing the outline under the centrelines). */
@@ -51,17 +59,65 @@ export function readOutlineLayer(shapes: (PathEntity | CircleEntity)[], stepUnit
   const axis = extractMedialAxis(rings, stepUnits);
   const pieces: LinePiece[] = [];
   const curveRadii: (number | null)[] = [];
-  for (const path of axis.paths) {
-    const bend = bendRadius(path.points, path.radii);
-    for (let i = 0; i + 1 < path.points.length; i++) {
-      const [x0, y0] = path.points[i];
-      const [x1, y1] = path.points[i + 1];
+  const profiles: { s: Float64Array; w: Float64Array }[] = [];
+  const pieceProfile: number[] = [];
+  const pieceS: number[] = [];
+  const keep: number[] = [];
+  axis.paths.forEach((path, pi) => {
+    const { points, radii } = path;
+    const m = points.length;
+    const ps = new Float64Array(m), pw = new Float64Array(m);
+    for (let i = 0; i < m; i++) {
+      ps[i] = i === 0 ? 0 : ps[i - 1] + dist(points[i - 1], points[i]);
+      pw[i] = 2 * radii[i];
+    }
+    profiles.push({ s: ps, w: pw });
+    const bend = bendRadius(points, radii);
+    shapePoints(points, axis.toleranceStepUnits / 8, keep);
+    for (let q = 0; q + 1 < keep.length; q++) {
+      const i = keep[q], j = keep[q + 1];
+      const [x0, y0] = points[i];
+      const [x1, y1] = points[j];
       if (x0 === x1 && y0 === y1) continue;
-      pieces.push({ kind: "line", x0, y0, x1, y1, w0: 2 * path.radii[i], w1: 2 * path.radii[i + 1] });
+      pieces.push({ kind: "line", x0, y0, x1, y1, w0: pw[i], w1: pw[j] });
       curveRadii.push(bend);
+      pieceProfile.push(pi);
+      pieceS.push(ps[i], ps[j]);
+    }
+  });
+  return { pieces, curveRadii, profiles, pieceProfile: Int32Array.from(pieceProfile), pieceS: Float64Array.from(pieceS), axis, rings };
+}
+
+/**
+ * Indices of the points that keep a polyline's shape within tol (Douglas–Peucker; own code, a dozen lines, as
+ * in the medial axis's path builder): the width points between them stay in the path's profile.
+ */
+function shapePoints(points: [number, number][], tol: number, out: number[]): void {
+  const m = points.length;
+  const keep = new Uint8Array(m);
+  keep[0] = keep[m - 1] = 1;
+  const stack = m > 2 ? [0, m - 1] : [];
+  while (stack.length) {
+    const j = stack.pop()!, i = stack.pop()!;
+    const [ax, ay] = points[i];
+    const [bx, by] = points[j];
+    const l = Math.sqrt((bx - ax) ** 2 + (by - ay) ** 2);
+    let best = -1, worst = tol;
+    for (let k = i + 1; k < j; k++) {
+      const [x, y] = points[k];
+      const d = l === 0 ? Math.sqrt((x - ax) ** 2 + (y - ay) ** 2) : Math.abs((bx - ax) * (y - ay) - (by - ay) * (x - ax)) / l;
+      if (d > worst) {
+        worst = d;
+        best = k;
+      }
+    }
+    if (best >= 0) {
+      keep[best] = 1;
+      stack.push(i, best, best, j);
     }
   }
-  return { pieces, curveRadii, axis, rings };
+  out.length = 0;
+  for (let k = 0; k < m; k++) if (keep[k]) out.push(k);
 }
 
 const dist = (a: [number, number], b: [number, number]) => Math.sqrt((b[0] - a[0]) ** 2 + (b[1] - a[1]) ** 2);

@@ -6,7 +6,7 @@
 import { describe, expect, it } from "vitest";
 import type { ArcPiece, LinePiece } from "@/lib/dxf/types";
 import { extractNetwork } from "@/lib/network/extract";
-import { PieceStore } from "@/lib/network/piece-store";
+import { PieceStore, WidthProfiles } from "@/lib/network/piece-store";
 
 describe("PieceStore", () => {
   const line: LinePiece = { kind: "line", x0: -0, y0: 0.1 + 0.2, x1: 1e300, y1: -5e-324, w0: 3.25, w1: null };
@@ -42,6 +42,59 @@ describe("PieceStore", () => {
     expect([b.len[1], b.layer[1], b.type[1], b.src[1], b.curveRadius(1)]).toEqual([9, 1, 2, 3, null]);
     expect(b.piece(2)).toEqual(line);
     expect([b.len[2], b.layer[2], b.type[2], b.src[2], b.curveRadius(2)]).toEqual([8, 5, 6, 7, 0.5]);
+  });
+});
+
+describe("width profiles along straight pieces", () => {
+  // A profile 0–10 long, widths 4 → 2 → 2 → 6 (linear between points; the expected values are that arithmetic).
+  const table = () => {
+    const t = new WidthProfiles();
+    t.add(Float64Array.from([0, 2, 8, 10]), Float64Array.from([4, 2, 2, 6]));
+    return t;
+  };
+
+  it("gives widths between its points and its points between two positions, in either direction", () => {
+    const t = table();
+    expect([t.widthAt(0, 0), t.widthAt(0, 1), t.widthAt(0, 5), t.widthAt(0, 9), t.widthAt(0, 10), t.widthAt(0, 12)]).toEqual([4, 3, 2, 4, 6, 6]);
+    const f: number[] = [], w: number[] = [];
+    expect(t.pointsBetween(0, 1, 9, f, w)).toBe(2);
+    expect(f).toEqual([1 / 8, 7 / 8]);
+    expect(w).toEqual([2, 2]);
+    f.length = w.length = 0;
+    expect(t.pointsBetween(0, 10, 0, f, w)).toBe(2);
+    expect(f).toEqual([0.2, 0.8]);
+    expect(w).toEqual([2, 2]);
+    f.length = w.length = 0;
+    expect(t.pointsBetween(0, 2, 8, f, w)).toBe(0);
+  });
+
+  it("a part of a profiled line keeps the profile over its own stretch, with the widths there at its ends", () => {
+    const a = new PieceStore(1, table());
+    a.pushProfiled({ kind: "line", x0: 0, y0: 0, x1: 10, y1: 0, w0: null, w1: null }, 10, 0, 0, 0, null, 0, 0, 10);
+    expect([a.drawnW0(0), a.drawnW1(0)]).toEqual([4, 6]);
+    const b = new PieceStore(1, a.profiles);
+    b.pushPart(a, 0, { kind: "line", x0: 1, y0: 0, x1: 9, y1: 0, w0: 3.5, w1: 5.5 }, 8);
+    b.pushRow(a, 0);
+    expect([b.ps0[0], b.ps1[0], b.drawnW0(0), b.drawnW1(0)]).toEqual([1, 9, 3, 4]);
+    expect([b.prof1[1], b.ps0[1], b.ps1[1]]).toEqual([1, 0, 10]);
+  });
+
+  it("an outline channel's segment carries the widths from its centreline's profile, not a straight line between its ends", () => {
+    // A 2000 µm channel 100 µm wide with a 200 µm wide, 400 µm long chamber in its middle (µm), drawn as one closed
+    // outline; ports at the two ends. Plane geometry: the segment's widest point is the chamber's 200 µm and its
+    // narrowest the channel's 100 µm, and the mean width lies between them.
+    const pts = [[0, -50], [800, -50], [800, -100], [1200, -100], [1200, -50], [2000, -50], [2000, 50], [1200, 50], [1200, 100], [800, 100], [800, 50], [0, 50]];
+    const lw = ["0", "LWPOLYLINE", "8", "FLOW", "90", String(pts.length), "70", "1", ...pts.flatMap(([x, y]) => ["10", String(x), "20", String(y)])];
+    const port = (x: number) => ["0", "CIRCLE", "8", "PORTS", "10", String(x), "20", "0", "30", "0", "40", "100"];
+    const dxf = [...["0", "SECTION", "2", "HEADER", "9", "$INSUNITS", "70", "13", "0", "ENDSEC", "0", "SECTION", "2", "ENTITIES"], ...lw, ...port(0), ...port(2000), ...["0", "ENDSEC", "0", "EOF"]].join("\n");
+    const net = extractNetwork(dxf, { layers: { FLOW: { role: "channel", depth: "50 um" }, PORTS: { role: "port" } } });
+    expect(net.segments).toHaveLength(1);
+    const s = net.segments[0];
+    expect(s.maxWidthM! / 200e-6).toBeCloseTo(1, 2);
+    expect(s.minWidthM! / 100e-6).toBeCloseTo(1, 2);
+    expect(s.widthProfile!.length).toBeGreaterThan(4);
+    expect(s.widthM).toBeGreaterThan(100e-6);
+    expect(s.widthM).toBeLessThan(200e-6);
   });
 });
 
