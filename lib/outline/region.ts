@@ -284,6 +284,11 @@ export function segDist2(px: number, py: number, ax: number, ay: number, bx: num
   return ex * ex + ey * ey;
 }
 
+/** R within the bounding box of P and Q (for a point already known to be on the line PQ). */
+function within(px: number, py: number, qx: number, qy: number, rx: number, ry: number): boolean {
+  return Math.min(px, qx) <= rx && rx <= Math.max(px, qx) && Math.min(py, qy) <= ry && ry <= Math.max(py, qy);
+}
+
 /** True when closed segments AB and CD share a point (orientation tests; touching and collinear overlap count). */
 export function segmentsMeet(ax: number, ay: number, bx: number, by: number, cx: number, cy: number, dx: number, dy: number): boolean {
   const d1 = orient(cx, cy, dx, dy, ax, ay);
@@ -291,8 +296,6 @@ export function segmentsMeet(ax: number, ay: number, bx: number, by: number, cx:
   const d3 = orient(ax, ay, bx, by, cx, cy);
   const d4 = orient(ax, ay, bx, by, dx, dy);
   if (((d1 > 0 && d2 < 0) || (d1 < 0 && d2 > 0)) && ((d3 > 0 && d4 < 0) || (d3 < 0 && d4 > 0))) return true;
-  const within = (px: number, py: number, qx: number, qy: number, rx: number, ry: number) =>
-    Math.min(px, qx) <= rx && rx <= Math.max(px, qx) && Math.min(py, qy) <= ry && ry <= Math.max(py, qy);
   return (d1 === 0 && within(cx, cy, dx, dy, ax, ay)) || (d2 === 0 && within(cx, cy, dx, dy, bx, by)) ||
     (d3 === 0 && within(ax, ay, bx, by, cx, cy)) || (d4 === 0 && within(ax, ay, bx, by, dx, dy));
 }
