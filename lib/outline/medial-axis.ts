@@ -526,6 +526,8 @@ class Projector {
 
   private readonly keptSites = new Int32Array(24);
   private readonly keptStart = new Int32Array(4);
+  private readonly otherSites = new Int32Array(24);
+  private readonly otherStart = new Int32Array(4);
 
   /** The walls two Voronoi vertices (triangles of samples a, b, c) share, each pair merged; returns how many (0 to 2). */
   sharedWalls(a0: number, b0: number, c0: number, a1: number, b1: number, c1: number): number {
@@ -536,7 +538,9 @@ class Projector {
     As.set(this.siteStart.subarray(0, n0 + 1));
     if (this.wallsOf(a1, b1, c1) < 2) return 0;
     const n1 = this.nSites;
-    const B = this.sites.slice(0, this.siteStart[n1]), Bs = this.siteStart.slice(0, n1 + 1);
+    const B = this.otherSites, Bs = this.otherStart;
+    B.set(this.sites.subarray(0, this.siteStart[n1]));
+    Bs.set(this.siteStart.subarray(0, n1 + 1));
     let nOut = 0, k = 0;
     this.siteStart[0] = 0;
     for (let g = 0; g < n0 && nOut < 2; g++) {
