@@ -4,8 +4,8 @@
  * drawn once as centreline LINEs and once as its filled mask (one outer
  * square with (n−1)² square holes), both through extractNetwork. Prints both
  * times, the ratio (target under 3×, issue 9) and the segment counts.
- * Printed, never asserted: the cold first run, the median of the next 5, and the
- * median of 5 after 5 more (JIT warmed). Export: run().
+ * Printed, never asserted: the cold first run, the median of the next 15, and the
+ * median of 15 after 15 more (JIT warmed). Export: run().
  */
 import { extractNetwork } from "../lib/network/extract";
 
@@ -49,6 +49,9 @@ export function gridOutline(n: number): string {
   return out.join("\n") + "\n";
 }
 
+/** Runs per median: on this shared 2-core machine medians of 5 swung the ratio by half (15 as in bench/geometry.ts). */
+const RUNS = 15;
+
 function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);
   return s[Math.floor(s.length / 2)];
@@ -66,9 +69,9 @@ export async function run(): Promise<void> {
     const net = extractNetwork(text, cond);
     return { ms: performance.now() - t0, net };
   };
-  // First (cold) run of each, then the median of 5 alternating runs, as this part has always printed. The medial
-  // axis is a long stretch of code the JIT optimises over several runs, so a second median follows after 5 more
-  // alternating runs per path (a long-lived server's state); both paths get exactly the same runs.
+  // First (cold) run of each, then the median of RUNS alternating runs. The medial axis is a long stretch of code
+  // the JIT optimises over several runs, so a second median follows after RUNS more alternating runs per path (a
+  // long-lived server's state); both paths get exactly the same runs.
   const first = [time(lineText, lineConditions).ms, time(maskText, maskConditions).ms];
   let lineSegs = 0, maskSegs = 0;
   let note = "";
@@ -86,14 +89,14 @@ export async function run(): Promise<void> {
     }
     return [median(lineMs), median(maskMs)];
   };
-  const [l, m] = alternate(5);
-  alternate(5);
-  const [lw, mw] = alternate(5);
+  const [l, m] = alternate(RUNS);
+  alternate(RUNS);
+  const [lw, mw] = alternate(RUNS);
   console.log(`grid ${n} × ${n}: ${channels} channels; centreline DXF ${(lineText.length / 1048576).toFixed(2)} MiB, outline DXF ${(maskText.length / 1048576).toFixed(2)} MiB`);
   console.log(`first (cold) run: centreline ${first[0].toFixed(0)} ms, outline ${first[1].toFixed(0)} ms`);
-  console.log(`centreline path : ${l.toFixed(0)} ms (median of 5), ${lineSegs} segments`);
-  console.log(`outline path    : ${m.toFixed(0)} ms (median of 5), ${maskSegs} segments`);
+  console.log(`centreline path : ${l.toFixed(0)} ms (median of ${RUNS}), ${lineSegs} segments`);
+  console.log(`outline path    : ${m.toFixed(0)} ms (median of ${RUNS}), ${maskSegs} segments`);
   console.log(`ratio outline / centreline: ${(m / l).toFixed(2)}× (target < 3×)`);
-  console.log(`after 5 more runs each: centreline ${lw.toFixed(0)} ms, outline ${mw.toFixed(0)} ms (medians of 5), ratio ${(mw / lw).toFixed(2)}×`);
+  console.log(`after ${RUNS} more runs each: centreline ${lw.toFixed(0)} ms, outline ${mw.toFixed(0)} ms (medians of ${RUNS}), ratio ${(mw / lw).toFixed(2)}×`);
   console.log(note);
 }
