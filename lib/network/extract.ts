@@ -1000,7 +1000,7 @@ function makeSegment(
     profF.length = profW.length = 0;
     profF.push(0);
     profW.push(w0);
-    const pid = pieces.prof1[i] - 1;
+    const pid = pieces.profileOf(i);
     if (pid >= 0) {
       const m = pieces.profiles.pointsBetween(pid, fwd ? pieces.ps0[i] : pieces.ps1[i], fwd ? pieces.ps1[i] : pieces.ps0[i], profF, profW);
       for (let q = 1; q <= m; q++) profW[q] *= mpu;

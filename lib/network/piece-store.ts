@@ -94,11 +94,14 @@ export class PieceStore {
   src: Int32Array;
   /** Bits: 1 w0 null, 2 w1 null, 4 curveR null. */
   flags: Uint8Array;
-  /** Width profile of the row (an id in `profiles` plus one; 0: none, the widths are linear from w0 to w1). */
-  prof1: Int32Array;
+  /**
+   * Width profile of the row (an id in `profiles` plus one; 0: none, the widths are linear from w0 to w1). Empty
+   * until a row with a profile is stored: centreline layouts never pay for these three columns.
+   */
+  prof1 = new Int32Array(0);
   /** Positions along that profile at the row's start and end (drawing units). */
-  ps0: Float64Array;
-  ps1: Float64Array;
+  ps0 = new Float64Array(0);
+  ps1 = new Float64Array(0);
 
   /**
    * @param capacity rows to make room for (the store grows by doubling beyond it).
@@ -106,9 +109,6 @@ export class PieceStore {
    */
   constructor(capacity: number, readonly profiles: WidthProfiles = new WidthProfiles()) {
     const c = Math.max(16, capacity);
-    this.prof1 = new Int32Array(c);
-    this.ps0 = new Float64Array(c);
-    this.ps1 = new Float64Array(c);
     this.kind = new Uint8Array(c);
     this.g0 = new Float64Array(c);
     this.g1 = new Float64Array(c);
@@ -141,9 +141,25 @@ export class PieceStore {
     this.type = grownCopy(this.type, c);
     this.src = grownCopy(this.src, c);
     this.flags = grownCopy(this.flags, c);
-    this.prof1 = grownCopy(this.prof1, c);
-    this.ps0 = grownCopy(this.ps0, c);
-    this.ps1 = grownCopy(this.ps1, c);
+    if (this.prof1.length > 0) {
+      this.prof1 = grownCopy(this.prof1, c);
+      this.ps0 = grownCopy(this.ps0, c);
+      this.ps1 = grownCopy(this.ps1, c);
+    }
+  }
+
+  /** The profile columns, made at the store's capacity the first time a row needs them. */
+  private withProfiles(): void {
+    if (this.prof1.length > 0) return;
+    const c = this.kind.length;
+    this.prof1 = new Int32Array(c);
+    this.ps0 = new Float64Array(c);
+    this.ps1 = new Float64Array(c);
+  }
+
+  /** Width profile id of row i, -1 for none. */
+  profileOf(i: number): number {
+    return this.prof1.length > 0 ? this.prof1[i] - 1 : -1;
   }
 
   /** Store the geometry and widths of p at row i (row already counted). */
@@ -181,7 +197,6 @@ export class PieceStore {
     this.src[i] = src;
     if (curveR === null) this.flags[i] |= CURVE_NULL;
     else this.curveR[i] = curveR;
-    this.prof1[i] = 0;
   }
 
   /**
@@ -195,6 +210,7 @@ export class PieceStore {
   }
 
   private setProfile(i: number, profile: number, s0: number, s1: number): void {
+    this.withProfiles();
     this.prof1[i] = profile + 1;
     this.ps0[i] = s0;
     this.ps1[i] = s1;
@@ -214,8 +230,7 @@ export class PieceStore {
     this.src[k] = from.src[i];
     this.curveR[k] = from.curveR[i];
     this.flags[k] |= from.flags[i] & CURVE_NULL;
-    this.prof1[k] = 0;
-    const pid = from.prof1[i] - 1;
+    const pid = from.profileOf(i);
     if (pid >= 0 && p.kind === "line" && from.kind[i] === 0) {
       // The part's ends as fractions along row i's line; the profile positions follow (the widths with them).
       const ax = from.g0[i], ay = from.g1[i], dx = from.g2[i] - ax, dy = from.g3[i] - ay;
@@ -245,9 +260,12 @@ export class PieceStore {
     this.type[k] = from.type[i];
     this.src[k] = from.src[i];
     this.flags[k] = from.flags[i];
-    this.prof1[k] = from.prof1[i];
-    this.ps0[k] = from.ps0[i];
-    this.ps1[k] = from.ps1[i];
+    if (from.profileOf(i) >= 0) {
+      this.withProfiles();
+      this.prof1[k] = from.prof1[i];
+      this.ps0[k] = from.ps0[i];
+      this.ps1[k] = from.ps1[i];
+    }
   }
 
   /**

@@ -16,6 +16,8 @@ describe("PieceStore", () => {
     const s = new PieceStore(1);
     for (let k = 0; k < 40; k++) s.push(k % 2 ? arc : line, k + 0.5, k % 3, k % 5, 1000 + k, k % 4 === 0 ? null : k / 7);
     expect(s.n).toBe(40);
+    // No row has a width profile: the profile columns are never made (centreline layouts do not pay for them).
+    expect([s.prof1.length, s.ps0.length, s.ps1.length, s.profileOf(7)]).toEqual([0, 0, 0, -1]);
     for (let k = 0; k < 40; k++) {
       const p = s.piece(k);
       expect(p).toEqual(k % 2 ? arc : line);
@@ -77,6 +79,13 @@ describe("width profiles along straight pieces", () => {
     b.pushRow(a, 0);
     expect([b.ps0[0], b.ps1[0], b.drawnW0(0), b.drawnW1(0)]).toEqual([1, 9, 3, 4]);
     expect([b.prof1[1], b.ps0[1], b.ps1[1]]).toEqual([1, 0, 10]);
+    // Rows stored before the first profiled one, and plain rows after it, have none.
+    const c = new PieceStore(1, a.profiles);
+    c.push({ kind: "line", x0: 0, y0: 0, x1: 1, y1: 0, w0: 1, w1: 1 }, 1, 0, 0, 0, null);
+    for (let k = 0; k < 20; k++) c.pushRow(a, 0);
+    c.push({ kind: "line", x0: 0, y0: 0, x1: 1, y1: 0, w0: 1, w1: 1 }, 1, 0, 0, 0, null);
+    expect([c.profileOf(0), c.profileOf(1), c.profileOf(20), c.profileOf(21)]).toEqual([-1, 0, 0, -1]);
+    expect([c.ps0[20], c.ps1[20]]).toEqual([0, 10]);
   });
 
   it("an outline channel's segment carries the widths from its centreline's profile, not a straight line between its ends", () => {
