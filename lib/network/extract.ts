@@ -996,20 +996,16 @@ function makeSegment(
         path[np++] = lastPiece && k === steps ? endAt(ends, toNode, x, y) : [x, y];
       }
     }
-    // The piece's widths: linear from w0 to w1, or through its profile's points (outline centrelines).
-    profF.length = profW.length = 0;
-    profF.push(0);
-    profW.push(w0);
+    // The piece's widths: linear from w0 to w1, or through its profile's m points between (outline centrelines).
     const pid = pieces.profileOf(i);
+    let m = 0;
     if (pid >= 0) {
-      const m = pieces.profiles.pointsBetween(pid, fwd ? pieces.ps0[i] : pieces.ps1[i], fwd ? pieces.ps1[i] : pieces.ps0[i], profF, profW);
-      for (let q = 1; q <= m; q++) profW[q] *= mpu;
+      profF.length = profW.length = 0;
+      m = pieces.profiles.pointsBetween(pid, fwd ? pieces.ps0[i] : pieces.ps1[i], fwd ? pieces.ps1[i] : pieces.ps0[i], profF, profW);
     }
-    profF.push(1);
-    profW.push(w1);
-    for (let q = 0; q + 1 < profF.length; q++) {
-      const wa = profW[q], wb = profW[q + 1];
-      const sa = s + len * profF[q], sb = s + len * profF[q + 1];
+    for (let q = 0; q <= m; q++) {
+      const wa = q === 0 ? w0 : profW[q - 1] * mpu, wb = q === m ? w1 : profW[q] * mpu;
+      const sa = q === 0 ? s : s + len * profF[q - 1], sb = q === m ? s + len : s + len * profF[q];
       // A width profile only when widths vary along the segment.
       if (profile === null && (wa !== first || wb !== first)) profile = sa === 0 ? [] : [{ sM: 0, widthM: first }, { sM: sa * mpu, widthM: first }];
       if (profile !== null) {
@@ -1017,7 +1013,8 @@ function makeSegment(
         if (!last || last.sM !== sa * mpu || last.widthM !== wa) profile.push({ sM: sa * mpu, widthM: wa });
         profile.push({ sM: sb * mpu, widthM: wb });
       }
-      area += ((wa + wb) / 2) * (sb - sa);
+      // (len itself for a plain piece: s + len − s may differ from it in the last bit.)
+      area += ((wa + wb) / 2) * (m === 0 ? len : sb - sa);
       minW = Math.min(minW, wa, wb);
       maxW = Math.max(maxW, wa, wb);
     }
