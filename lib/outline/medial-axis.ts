@@ -14,6 +14,7 @@
  */
 import { Delaunay } from "d3-delaunay";
 import { grownCopy } from "../typed-arrays";
+import { douglasPeucker } from "./simplify";
 import { orientRings, orientedArea, Region, WallGrid, type OrientedRings, type Ring } from "./region";
 
 /** Samples per smallest width (common practice for Voronoi medial axes: a few samples across the narrowest gap). */
@@ -1015,7 +1016,7 @@ const fmt = (x: number) => String(Number(x.toPrecision(6)));
 
 /**
  * Branches as centreline paths: the chain's shape within a quarter step and its width within WIDTH_TOLERANCE,
- * both decided together (Douglas–Peucker on position and radius; own code, a dozen lines) on candidate points:
+ * both decided together (Douglas–Peucker on position and radius, simplify.ts) on candidate points:
  * the chain's vertices, and midpoints of chain edges along which the axis or its radius bends. With sparse samples (a projector) the
  * midpoints are put on the walls' exact bisector; the radii of the points kept come from the exact wall distance.
  */
@@ -1121,14 +1122,8 @@ class PathBuilder {
     // Keep points where either the shape (a quarter step) or the width (WIDTH_TOLERANCE) is off otherwise.
     if (this.keep.length < nC) this.keep = new Uint8Array(2 * nC);
     const keep = this.keep;
-    keep.fill(0, 0, nC);
-    keep[0] = keep[nC - 1] = 1;
     const geomTol = step / 4;
-    const stack = this.stack;
-    stack.length = 0;
-    if (nC > 2) stack.push(0, nC - 1);
-    while (stack.length) {
-      const j = stack.pop()!, i = stack.pop()!;
+    douglasPeucker(nC, keep, this.stack, (i, j) => {
       const ax = cx[i], ay = cy[i], bx = cx[j], by = cy[j];
       const l = norm(bx - ax, by - ay);
       const span = cs[j] - cs[i];
@@ -1142,11 +1137,8 @@ class PathBuilder {
           best = k;
         }
       }
-      if (best >= 0) {
-        keep[best] = 1;
-        stack.push(i, best, best, j);
-      }
-    }
+      return best;
+    });
     // Points closer than half a step would make pieces shorter than the network's snap tolerance: skip them.
     const points: [number, number][] = [];
     const ks: number[] = [];

@@ -6,6 +6,7 @@ import type { CircleEntity, LinePiece, PathEntity } from "../dxf/types";
 import { samplePoints, startOf } from "../network/geometry";
 import { extractMedialAxis, type MedialAxisResult } from "./medial-axis";
 import type { Ring } from "./region";
+import { douglasPeucker } from "./simplify";
 
 /** Sides of the polygon standing in for a circle drawn on a channel layer (common practice: chord sag below 0.1 % of the radius). */
 const CIRCLE_SIDES = 96;
@@ -89,16 +90,13 @@ export function readOutlineLayer(shapes: (PathEntity | CircleEntity)[], stepUnit
 }
 
 /**
- * Indices of the points that keep a polyline's shape within tol (Douglas–Peucker; own code, a dozen lines, as
- * in the medial axis's path builder): the width points between them stay in the path's profile.
+ * Indices of the points that keep a polyline's shape within tol (Douglas–Peucker, simplify.ts): the width points
+ * between them stay in the path's profile.
  */
 function shapePoints(points: [number, number][], tol: number, out: number[]): void {
   const m = points.length;
   const keep = new Uint8Array(m);
-  keep[0] = keep[m - 1] = 1;
-  const stack = m > 2 ? [0, m - 1] : [];
-  while (stack.length) {
-    const j = stack.pop()!, i = stack.pop()!;
+  douglasPeucker(m, keep, [], (i, j) => {
     const [ax, ay] = points[i];
     const [bx, by] = points[j];
     const l = Math.sqrt((bx - ax) ** 2 + (by - ay) ** 2);
@@ -111,11 +109,8 @@ function shapePoints(points: [number, number][], tol: number, out: number[]): vo
         best = k;
       }
     }
-    if (best >= 0) {
-      keep[best] = 1;
-      stack.push(i, best, best, j);
-    }
-  }
+    return best;
+  });
   out.length = 0;
   for (let k = 0; k < m; k++) if (keep[k]) out.push(k);
 }
