@@ -13,20 +13,32 @@ import { grownCopy } from "../typed-arrays";
  * it. Positions and widths in drawing units, positions increasing.
  */
 export class WidthProfiles {
-  private readonly s: Float64Array[] = [];
-  private readonly w: Float64Array[] = [];
+  /** All profiles' positions and widths end to end (one pair of columns: a small array per path was mostly GC). */
+  private S = new Float64Array(256);
+  private W = new Float64Array(256);
+  /** Profile id's points are S[off[id]] .. S[off[id + 1] - 1]. */
+  private readonly off: number[] = [0];
 
-  /** Register a profile; returns its id. */
-  add(s: Float64Array, w: Float64Array): number {
-    this.s.push(s);
-    this.w.push(w);
-    return this.s.length - 1;
+  /** Register a profile (copied); returns its id. */
+  add(s: ArrayLike<number>, w: ArrayLike<number>): number {
+    const at = this.off[this.off.length - 1], n = s.length;
+    if (at + n > this.S.length) {
+      const c = Math.max(2 * this.S.length, at + n);
+      this.S = grownCopy(this.S, c);
+      this.W = grownCopy(this.W, c);
+    }
+    for (let k = 0; k < n; k++) {
+      this.S[at + k] = s[k];
+      this.W[at + k] = w[k];
+    }
+    this.off.push(at + n);
+    return this.off.length - 2;
   }
 
-  /** Index of the last profile point at or before position at (0 when before the first). */
+  /** Index of the last profile point at or before position at (the first when before it), into S and W. */
   private before(id: number, at: number): number {
-    const s = this.s[id];
-    let lo = 0, hi = s.length - 1;
+    const s = this.S;
+    let lo = this.off[id], hi = this.off[id + 1] - 1;
     if (at >= s[hi]) return hi;
     while (hi - lo > 1) {
       const mid = (lo + hi) >> 1;
@@ -38,9 +50,11 @@ export class WidthProfiles {
 
   /** Width of profile id at position at, linear between its points (held flat beyond its ends). */
   widthAt(id: number, at: number): number {
-    const s = this.s[id], w = this.w[id];
+    const s = this.S, w = this.W;
+    const first = this.off[id], last = this.off[id + 1] - 1;
+    if (at <= s[first]) return w[first];
     const k = this.before(id, at);
-    if (k === s.length - 1 || at <= s[0]) return w[at <= s[0] ? 0 : k];
+    if (k === last) return w[k];
     const span = s[k + 1] - s[k];
     return span > 0 ? w[k] + ((w[k + 1] - w[k]) * (at - s[k])) / span : w[k];
   }
@@ -50,13 +64,14 @@ export class WidthProfiles {
    * of the way from a to b and widths, appended to f and w; returns how many.
    */
   pointsBetween(id: number, a: number, b: number, f: number[], w: number[]): number {
-    const s = this.s[id], ws = this.w[id];
+    const s = this.S, ws = this.W;
     const lo = Math.min(a, b), hi = Math.max(a, b), span = b - a;
     if (!(hi > lo)) return 0;
+    const end = this.off[id + 1];
     let first = this.before(id, lo);
     if (s[first] <= lo) first++;
     let last = first;
-    while (last < s.length && s[last] < hi) last++;
+    while (last < end && s[last] < hi) last++;
     const n = last - first;
     for (let q = 0; q < n; q++) {
       const k = a <= b ? first + q : last - 1 - q;

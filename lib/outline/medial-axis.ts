@@ -14,6 +14,7 @@
  */
 import { Delaunay } from "d3-delaunay";
 import { grownCopy } from "../typed-arrays";
+import { readPairedWalls } from "./paired-walls";
 import { douglasPeucker } from "./simplify";
 import { orientRings, orientedArea, Region, WallGrid, type OrientedRings, type Ring } from "./region";
 
@@ -37,9 +38,16 @@ export interface CentrelinePath {
   points: [number, number][];
   /** Local half-width at each point (distance to the nearest wall), drawing units. */
   radii: number[];
+  /** Smallest bend radius where the reader knows it (null: no bend), drawing units; else found from the points. */
+  bendRadius?: number | null;
 }
 
 export interface MedialAxisResult {
+  /**
+   * How the centrelines were found: "paired walls" where every wall faces a parallel one (paired-walls.ts,
+   * exact, no sampling), else "medial axis" (the Voronoi diagram of wall samples).
+   */
+  method: "paired walls" | "medial axis";
   paths: CentrelinePath[];
   /** Boundary sampling: every polygon vertex, and points along each edge at most this far apart, drawing units. */
   stepUnits: number;
@@ -63,9 +71,10 @@ export interface MedialAxisResult {
  * Find the centrelines of the area filled by `rings`.
  * @param rings closed rings in drawing units (outer boundaries and holes, any orientation).
  * @param stepUnits boundary sampling step; when omitted it derives from the smallest feature (two passes).
+ * @param options pairedWalls: false to skip the paired-wall reading and always sample (for comparisons).
  * @returns centreline paths split at junctions and dead ends, with half-widths, and the tolerances used.
  */
-export function extractMedialAxis(rings: Ring[], stepUnits?: number): MedialAxisResult {
+export function extractMedialAxis(rings: Ring[], stepUnits?: number, options: { pairedWalls?: boolean } = {}): MedialAxisResult {
   const notes: string[] = [];
   let perimeter = 0;
   for (const r of rings) for (let i = 0; i < r.length; i++) {
@@ -84,8 +93,8 @@ export function extractMedialAxis(rings: Ring[], stepUnits?: number): MedialAxis
     notes.push(`The outline is too long for its smallest feature; the boundary was sampled every ${floor.toPrecision(3)} drawing units instead of ${step.toPrecision(3)}.`);
     step = floor;
   }
-  let result = medialAxisAt(prep, step);
-  if (stepUnits === undefined && result.minWidthUnits / SAMPLES_PER_WIDTH < step / 1.5 && result.minWidthUnits > 0) {
+  let result = medialAxisAt(prep, step, stepUnits === undefined && options.pairedWalls !== false);
+  if (result.method === "medial axis" && stepUnits === undefined && result.minWidthUnits / SAMPLES_PER_WIDTH < step / 1.5 && result.minWidthUnits > 0) {
     // A narrower channel than the first guess: sample again at the step its width asks for.
     const finer = Math.max(result.minWidthUnits / SAMPLES_PER_WIDTH, floor);
     if (finer < step) result = medialAxisAt(prep, finer);
@@ -300,7 +309,7 @@ function sampleOverlapping(region: Region, ringEdgeStart: Int32Array, step: numb
 
 type Mode = "sparse" | "dense" | "overlapping";
 
-function medialAxisAt(prep: OrientedRings, step: number): MedialAxisResult {
+function medialAxisAt(prep: OrientedRings, step: number, tryPairedWalls = false): MedialAxisResult {
   const ed = edgesOf(prep.rings);
   const { edges, ringEdgeStart, ringOfEdge } = ed;
   // Cells of about two smallest widths: a wall-distance query then looks at a few cells at most.
@@ -320,6 +329,11 @@ function medialAxisAt(prep: OrientedRings, step: number): MedialAxisResult {
     const reg = region(step * 4);
     const { samples, walls } = sampleOverlapping(reg, ringEdgeStart, step);
     return axisFromSamples(prep, step, step, samples, ed, new WallGrid(walls, step * 4), "overlapping", () => reg)!;
+  }
+  if (tryPairedWalls) {
+    // Straight channels between parallel walls are read exactly from the walls; anything else is sampled.
+    const paired = readPairedWalls(prep, edges, ringEdgeStart, wallGrid, { samplesPerWidth: SAMPLES_PER_WIDTH });
+    if (paired) return paired;
   }
   const maxSpacing = WALL_SPACING_WIDTHS * SAMPLES_PER_WIDTH * step;
   const coarseCell = Math.max(step * 4, Math.sqrt(Math.max(1e-300, (wallGrid.width * wallGrid.height) / Math.max(1, edges.length / 4))));
@@ -1001,6 +1015,7 @@ function axisFromSamples(
   }
   const pruneMin = sk.pruneMin;
   return {
+    method: "medial axis",
     paths,
     stepUnits: maxSpacing,
     toleranceStepUnits: step,

@@ -64,17 +64,24 @@ export function readOutlineLayer(shapes: (PathEntity | CircleEntity)[], stepUnit
   const pieceProfile: number[] = [];
   const pieceS: number[] = [];
   const keep: number[] = [];
+  const scratch = { keep: new Uint8Array(64), stack: [] as number[] };
+  // Every path's profile is a view into one pair of columns (a small typed array per path was mostly GC).
+  let total = 0;
+  for (const path of axis.paths) total += path.points.length;
+  const allS = new Float64Array(total), allW = new Float64Array(total);
+  let at = 0;
   axis.paths.forEach((path, pi) => {
     const { points, radii } = path;
     const m = points.length;
-    const ps = new Float64Array(m), pw = new Float64Array(m);
+    const ps = allS.subarray(at, at + m), pw = allW.subarray(at, at + m);
+    at += m;
     for (let i = 0; i < m; i++) {
       ps[i] = i === 0 ? 0 : ps[i - 1] + dist(points[i - 1], points[i]);
       pw[i] = 2 * radii[i];
     }
     profiles.push({ s: ps, w: pw });
-    const bend = bendRadius(points, radii);
-    shapePoints(points, axis.toleranceStepUnits / 8, keep);
+    const bend = path.bendRadius !== undefined ? path.bendRadius : bendRadius(points, radii);
+    shapePoints(points, axis.toleranceStepUnits / 8, keep, scratch);
     for (let q = 0; q + 1 < keep.length; q++) {
       const i = keep[q], j = keep[q + 1];
       const [x0, y0] = points[i];
@@ -93,10 +100,11 @@ export function readOutlineLayer(shapes: (PathEntity | CircleEntity)[], stepUnit
  * Indices of the points that keep a polyline's shape within tol (Douglas–Peucker, simplify.ts): the width points
  * between them stay in the path's profile.
  */
-function shapePoints(points: [number, number][], tol: number, out: number[]): void {
+function shapePoints(points: [number, number][], tol: number, out: number[], scratch: { keep: Uint8Array; stack: number[] }): void {
   const m = points.length;
-  const keep = new Uint8Array(m);
-  douglasPeucker(m, keep, [], (i, j) => {
+  if (scratch.keep.length < m) scratch.keep = new Uint8Array(2 * m);
+  const keep = scratch.keep;
+  douglasPeucker(m, keep, scratch.stack, (i, j) => {
     const [ax, ay] = points[i];
     const [bx, by] = points[j];
     const l = Math.sqrt((bx - ax) ** 2 + (by - ay) ** 2);

@@ -312,6 +312,9 @@ export class WallGrid {
   private readonly ny: number;
   private readonly start: Int32Array;
   private readonly list: Int32Array;
+  /** collect(): the query each segment was last listed by. */
+  private seen: Int32Array | undefined;
+  private mark = 0;
 
   /**
    * @param segs wall segments, x0 y0 x1 y1 each, drawing units.
@@ -353,6 +356,33 @@ export class WallGrid {
   }
   private iy(y: number): number {
     return Math.min(this.ny - 1, Math.max(0, Math.floor((y - this.oy) / this.cell)));
+  }
+
+  /** Cell edge, drawing units. */
+  get cellSize(): number {
+    return this.cell;
+  }
+
+  /**
+   * Ids of the segments listed in the cells the box touches, each once, into `out` (cleared first): the caller
+   * tests them exactly.
+   */
+  collect(minX: number, minY: number, maxX: number, maxY: number, out: number[]): void {
+    out.length = 0;
+    const seen = (this.seen ??= new Int32Array(this.segs.length / 4));
+    const mark = ++this.mark;
+    const i0 = this.ix(minX), i1 = this.ix(maxX), j0 = this.iy(minY), j1 = this.iy(maxY);
+    for (let j = j0; j <= j1; j++) {
+      for (let i = i0; i <= i1; i++) {
+        const c = j * this.nx + i;
+        for (let k = this.start[c]; k < this.start[c + 1]; k++) {
+          const e = this.list[k];
+          if (seen[e] === mark) continue;
+          seen[e] = mark;
+          out.push(e);
+        }
+      }
+    }
   }
 
   /** Distance from (x, y) to the nearest wall segment within maxR (drawing units); Infinity if none that near. */

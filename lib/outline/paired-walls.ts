@@ -1,0 +1,699 @@
+/**
+ * Centrelines of a mask drawn as straight channels between parallel walls,
+ * read without sampling: each wall is paired with the antiparallel wall it
+ * faces, the stretch between them is a straight channel of constant width
+ * whose centreline is the midline, and the stretches' ends are joined where
+ * their centrelines meet. A mask of straight channels, mitred bends, T and
+ * cross junctions and flat or round dead ends (most photomasks) is read
+ * exactly this way in a few operations per wall.
+ *
+ * Every step checks what it assumes, and any region the pairing does not
+ * explain in full (a chamber, a taper, a post in a channel, a jog, shapes
+ * that overlap) returns null so the caller falls back to the Voronoi medial
+ * axis (medial-axis.ts). Own code: no package we use pairs walls; it is plane
+ * geometry on the wall segments in a grid (region.ts WallGrid).
+ */
+import { WIDTH_TOLERANCE, type CentrelinePath, type MedialAxisResult } from "./medial-axis";
+import { segDist2, segmentsMeet, type OrientedRings, type WallGrid } from "./region";
+
+/** Walls count as antiparallel when the sine of the angle between them is below this (drawing precision). */
+const PARALLEL_SIN = 1e-9;
+/**
+ * A stretch is a channel only where no other wall comes nearer its midline than its half-width, less this
+ * fraction (tessellated round caps and bends come within 0.1 % of it at 5° steps).
+ */
+const CLEARANCE_SLACK = 0.01;
+/** A joint (junction, bend, dead end) reaches at most this many of its widest half-widths from its centre. */
+export const JOINT_REACH = 2.5;
+/** Centrelines meeting at a joint: within this fraction of the smallest width of the joint's centre. */
+const MEET_TOLERANCE = 1e-3;
+
+export interface PairedWallsOptions {
+  /** Samples per smallest width of the Voronoi reader: the tolerance step is stated on the same scale. */
+  samplesPerWidth: number;
+}
+
+/**
+ * Read the filled area of non-touching rings as straight channels between parallel walls.
+ * @param prep rings oriented with the filled side on the left (region.ts orientRings); no two may touch.
+ * @param edges the rings' edges, x0 y0 x1 y1 each, ring by ring; ringEdgeStart[r] is ring r's first edge.
+ * @param grid the same edges in a grid.
+ * @returns the centreline paths (split at junctions and dead ends, half-widths along them), or null where the
+ *   walls are not all explained by facing pairs; drawing units.
+ */
+export function readPairedWalls(prep: OrientedRings, edges: Float64Array, ringEdgeStart: Int32Array, grid: WallGrid, options: PairedWallsOptions): MedialAxisResult | null {
+  const nE = edges.length / 4;
+  if (nE === 0) return null;
+  const ux = new Float64Array(nE), uy = new Float64Array(nE), len = new Float64Array(nE);
+  for (let e = 0; e < nE; e++) {
+    const dx = edges[4 * e + 2] - edges[4 * e], dy = edges[4 * e + 3] - edges[4 * e + 1];
+    const l = Math.sqrt(dx * dx + dy * dy);
+    if (!(l > 0)) return null;
+    len[e] = l;
+    ux[e] = dx / l;
+    uy[e] = dy / l;
+  }
+  const extent = Math.max(grid.width, grid.height);
+  const near: number[] = [];
+
+  // 1. Pairs: the wall each edge's midpoint faces (a ray along its inward normal), kept when antiparallel.
+  const keys: number[] = [];
+  for (let a = 0; a < nE; a++) {
+    const px = (edges[4 * a] + edges[4 * a + 2]) / 2, py = (edges[4 * a + 1] + edges[4 * a + 3]) / 2;
+    const nx = -uy[a], ny = ux[a];
+    const b = firstHit(grid, edges, a, px, py, nx, ny, extent, near);
+    if (b < 0) return null;
+    if (Math.abs(ux[a] * uy[b] - uy[a] * ux[b]) <= PARALLEL_SIN && ux[a] * ux[b] + uy[a] * uy[b] < 0) keys.push(a < b ? a * nE + b : b * nE + a);
+  }
+  keys.sort((p, q) => p - q);
+
+  // 2. Stretches: the overlap of each pair, kept where nothing else comes within the half-width of its midline.
+  const st = new StretchList();
+  for (let k = 0; k < keys.length; k++) {
+    if (k > 0 && keys[k] === keys[k - 1]) continue;
+    const a = Math.floor(keys[k] / nE), b = keys[k] % nE;
+    st.tryPair(edges, ux, uy, len, a, b, grid, near);
+  }
+  const nS = st.n;
+  if (nS === 0) return null;
+
+  // 3. Walk each ring: the wall between one stretch's end and the next stretch's start joins those two ends.
+  const intervals = wallIntervals(st, nE);
+  if (!intervals) return null;
+  const { order, iStart } = intervals;
+  const parent = new Int32Array(2 * nS);
+  for (let i = 0; i < parent.length; i++) parent[i] = i;
+  const find = (x: number): number => {
+    while (parent[x] !== x) x = parent[x] = parent[parent[x]];
+    return x;
+  };
+  const selfJoined = new Uint8Array(2 * nS);
+  // Gaps: the end each leaves from, and the wall points along it (x y pairs) from gapStart[g] to gapStart[g + 1].
+  const gapEnd: number[] = [];
+  const gapStart: number[] = [];
+  const gapPts: number[] = [];
+  const pushPoint = (iv: number, high: boolean) => {
+    const e = st.ivEdge[iv];
+    const t = high ? st.ivHi[iv] : st.ivLo[iv];
+    gapPts.push(edges[4 * e] + ux[e] * t, edges[4 * e + 1] + uy[e] * t);
+  };
+  const joinGap = (from: number, to: number, ring: number): void => {
+    const x = st.hiEnd(from), y = st.loEnd(to);
+    const rx = find(x), ry = find(y);
+    if (x === y) selfJoined[x] = 1;
+    if (rx !== ry) parent[rx] = ry;
+    gapEnd.push(x);
+    gapStart.push(gapPts.length);
+    const ef = st.ivEdge[from], et = st.ivEdge[to];
+    pushPoint(from, true);
+    // The ring vertices between (none when both lie on one edge in order).
+    if (!(ef === et && st.ivLo[to] >= st.ivHi[from])) {
+      const e0 = ringEdgeStart[ring], e1 = ringEdgeStart[ring + 1];
+      for (let e = ef, steps = 0; steps < e1 - e0; steps++) {
+        e = e + 1 === e1 ? e0 : e + 1;
+        gapPts.push(edges[4 * e], edges[4 * e + 1]);
+        if (e === et) break;
+      }
+    }
+    pushPoint(to, false);
+  };
+  const nRings = ringEdgeStart.length - 1;
+  for (let r = 0; r < nRings; r++) {
+    let first = -1, last = -1;
+    for (let e = ringEdgeStart[r]; e < ringEdgeStart[r + 1]; e++) {
+      for (let q = iStart[e]; q < iStart[e + 1]; q++) {
+        const iv = order[q];
+        if (last < 0) first = iv;
+        else joinGap(last, iv, r);
+        last = iv;
+      }
+    }
+    if (first < 0) return null;
+    joinGap(last, first, r);
+  }
+  gapStart.push(gapPts.length);
+
+  // 4. Joints: the ends each group joins, their centre where the centrelines meet, checked to stay local.
+  const joints = new Joints(nS, find, gapEnd, gapStart, gapPts);
+  let minR = Infinity;
+  for (let s = 0; s < nS; s++) minR = Math.min(minR, st.r[s]);
+  const tol = MEET_TOLERANCE * 2 * minR;
+  const frame = new Float64Array(4);
+  let junctions = 0, deadEnds = 0;
+  for (let g = 0; g < joints.n; g++) {
+    const k0 = joints.start[g], k1 = joints.start[g + 1];
+    let px: number, py: number, reach: number;
+    if (k1 - k0 === 1) {
+      const x = joints.ends[k0];
+      if (!selfJoined[x]) return null;
+      // A dead end: on along the centreline to the end wall (flat: already there; round: one half-width on).
+      st.endFrameInto(x, frame);
+      const [cx, cy, dx, dy] = frame;
+      const t = joints.rayToWalls(g, cx, cy, dx, dy, tol);
+      if (t === null) return null;
+      px = cx + dx * t;
+      py = cy + dy * t;
+      reach = JOINT_REACH * st.r[x >> 1];
+      if (!joints.withinReach(g, cx, cy, reach)) return null;
+      deadEnds++;
+    } else {
+      let rMax = 0;
+      for (let k = k0; k < k1; k++) {
+        if (selfJoined[joints.ends[k]]) return null;
+        rMax = Math.max(rMax, st.r[joints.ends[k] >> 1]);
+      }
+      if (!meetingPoint(st, joints.ends.subarray(k0, k1), tol, frame)) return null;
+      px = frame[0];
+      py = frame[1];
+      reach = JOINT_REACH * rMax;
+      for (let k = k0; k < k1; k++) {
+        st.endFrameInto(joints.ends[k], frame);
+        if (Math.sqrt((px - frame[0]) ** 2 + (py - frame[1]) ** 2) > reach) return null;
+      }
+      if (!joints.withinReach(g, px, py, reach)) return null;
+      if (k1 - k0 > 2) junctions++;
+    }
+    joints.x[g] = px;
+    joints.y[g] = py;
+  }
+
+  // 5. Paths: from each junction or dead end along stretches through the bends (degree-2 joints) to the next.
+  const paths = tracePaths(st, joints, minR);
+  const holes = prep.depth.filter((d) => d % 2 === 1).length;
+  const step = (2 * minR) / options.samplesPerWidth;
+  return {
+    method: "paired walls",
+    paths,
+    stepUnits: step,
+    toleranceStepUnits: step,
+    pruneLengthUnits: 0,
+    minWidthUnits: 2 * minR,
+    regions: prep.depth.length - holes,
+    holes,
+    notes: [
+      `Every wall faces a parallel wall: ${nS} straight stretch(es) of constant width, joined at ${junctions} junction(s) and ${deadEnds} dead end(s) where their centrelines meet (within ${fmt(MEET_TOLERANCE * 100)} % of the smallest width); exact widths, no boundary sampling.`,
+    ],
+  };
+}
+
+/**
+ * Stretch ends grouped into joints (junctions, bends, dead ends), with the wall gaps between them: ends of
+ * joint g are ends[start[g] .. start[g + 1]), its gaps gaps[gapFrom[g] .. gapFrom[g + 1]); x, y its centre.
+ */
+class Joints {
+  readonly n: number;
+  readonly of: Int32Array;
+  readonly start: Int32Array;
+  readonly ends: Int32Array;
+  readonly gapFrom: Int32Array;
+  readonly gaps: Int32Array;
+  readonly x: Float64Array;
+  readonly y: Float64Array;
+
+  constructor(nS: number, find: (x: number) => number, gapEnd: number[], readonly gapStart: number[], readonly gapPts: number[]) {
+    const nX = 2 * nS;
+    const of = new Int32Array(nX).fill(-1);
+    let n = 0;
+    const rootGroup = new Int32Array(nX).fill(-1);
+    for (let x = 0; x < nX; x++) {
+      const r = find(x);
+      if (rootGroup[r] < 0) rootGroup[r] = n++;
+      of[x] = rootGroup[r];
+    }
+    this.n = n;
+    this.of = of;
+    [this.start, this.ends] = bucket(of, n);
+    const gapGroup = Int32Array.from(gapEnd, (x) => of[x]);
+    [this.gapFrom, this.gaps] = bucket(gapGroup, n);
+    this.x = new Float64Array(n);
+    this.y = new Float64Array(n);
+  }
+
+  degree(x: number): number {
+    const g = this.of[x];
+    return this.start[g + 1] - this.start[g];
+  }
+
+  /** The other end of a two-end joint. */
+  other(x: number): number {
+    const k = this.start[this.of[x]];
+    return this.ends[k] === x ? this.ends[k + 1] : this.ends[k];
+  }
+
+  /** Every wall point of joint g's gaps within `reach` of (px, py). */
+  withinReach(g: number, px: number, py: number, reach: number): boolean {
+    const { gapStart, gapPts } = this;
+    const r2 = reach * reach;
+    for (let q = this.gapFrom[g]; q < this.gapFrom[g + 1]; q++) {
+      const gp = this.gaps[q];
+      for (let k = gapStart[gp]; k < gapStart[gp + 1]; k += 2) if ((gapPts[k] - px) ** 2 + (gapPts[k + 1] - py) ** 2 > r2) return false;
+    }
+    return true;
+  }
+
+  /** Distance along a ray to the first of joint g's gap walls it meets (≥ −tol), or null. */
+  rayToWalls(g: number, cx: number, cy: number, dx: number, dy: number, tol: number): number | null {
+    const { gapStart, gapPts } = this;
+    let best: number | null = null;
+    for (let q = this.gapFrom[g]; q < this.gapFrom[g + 1]; q++) {
+      const gp = this.gaps[q];
+      for (let k = gapStart[gp]; k + 3 < gapStart[gp + 1]; k += 2) {
+        const ax = gapPts[k], ay = gapPts[k + 1];
+        const vx = gapPts[k + 2] - ax, vy = gapPts[k + 3] - ay;
+        const den = dx * vy - dy * vx;
+        if (den === 0) continue;
+        const wx = ax - cx, wy = ay - cy;
+        const t = (wx * vy - wy * vx) / den;
+        const s = (wx * dy - wy * dx) / den;
+        if (s >= -1e-9 && s <= 1 + 1e-9 && t >= -tol && (best === null || t < best)) best = Math.max(0, t);
+      }
+    }
+    return best;
+  }
+
+  /**
+   * The walls in reach from inside joint g, relative to its centre, x0 y0 x1 y1 each, into out (grown as
+   * needed; the count of numbers returned): its gaps' wall pieces and, for each stretch ending there, the
+   * stretch's two walls back from the end for JOINT_REACH half-widths (or its length).
+   */
+  wallsInto(g: number, st: StretchList, frame: Float64Array, out: { buf: Float64Array }): number {
+    const { gapStart, gapPts } = this;
+    const px = this.x[g], py = this.y[g];
+    let m = 0;
+    const put = (x0: number, y0: number, x1: number, y1: number) => {
+      if (m + 4 > out.buf.length) {
+        const b = new Float64Array(2 * out.buf.length + 16);
+        b.set(out.buf);
+        out.buf = b;
+      }
+      out.buf[m++] = x0 - px;
+      out.buf[m++] = y0 - py;
+      out.buf[m++] = x1 - px;
+      out.buf[m++] = y1 - py;
+    };
+    for (let q = this.gapFrom[g]; q < this.gapFrom[g + 1]; q++) {
+      const gp = this.gaps[q];
+      for (let k = gapStart[gp]; k + 3 < gapStart[gp + 1]; k += 2) put(gapPts[k], gapPts[k + 1], gapPts[k + 2], gapPts[k + 3]);
+    }
+    for (let k = this.start[g]; k < this.start[g + 1]; k++) {
+      const x = this.ends[k];
+      const s = x >> 1, r = st.r[s];
+      st.endFrameInto(x, frame);
+      const [cx, cy, dx, dy] = frame;
+      const back = Math.min(JOINT_REACH * r, Math.sqrt((st.cx1[s] - st.cx0[s]) ** 2 + (st.cy1[s] - st.cy0[s]) ** 2));
+      put(cx + dy * r, cy - dx * r, cx + dy * r - dx * back, cy - dx * r - dy * back);
+      put(cx - dy * r, cy + dx * r, cx - dy * r - dx * back, cy + dx * r - dy * back);
+    }
+    return m;
+  }
+}
+
+/** Items grouped by key (counting sort): items of key g are items[start[g] .. start[g + 1]). */
+function bucket(keyOf: Int32Array, n: number): [Int32Array, Int32Array] {
+  const start = new Int32Array(n + 1);
+  for (const g of keyOf) start[g + 1]++;
+  for (let g = 0; g < n; g++) start[g + 1] += start[g];
+  const fill = start.slice(0, n);
+  const items = new Int32Array(keyOf.length);
+  for (let i = 0; i < keyOf.length; i++) items[fill[keyOf[i]]++] = i;
+  return [start, items];
+}
+
+const fmt = (x: number) => String(Number(x.toPrecision(6)));
+
+/** The first wall a ray from edge `self` meets (its distance growing by doubling up to the extent), or -1. */
+function firstHit(grid: WallGrid, edges: Float64Array, self: number, px: number, py: number, nx: number, ny: number, extent: number, near: number[]): number {
+  for (let reach = grid.cellSize; ; reach *= 2) {
+    const qx = px + nx * reach, qy = py + ny * reach;
+    grid.collect(Math.min(px, qx), Math.min(py, qy), Math.max(px, qx), Math.max(py, qy), near);
+    let best = -1, bestT = Infinity;
+    for (const e of near) {
+      if (e === self) continue;
+      const ax = edges[4 * e], ay = edges[4 * e + 1];
+      const vx = edges[4 * e + 2] - ax, vy = edges[4 * e + 3] - ay;
+      const den = nx * vy - ny * vx;
+      if (den === 0) continue;
+      const wx = ax - px, wy = ay - py;
+      const t = (wx * vy - wy * vx) / den;
+      const s = (wx * ny - wy * nx) / den;
+      if (t > 0 && s >= -1e-12 && s <= 1 + 1e-12 && t < bestT) {
+        bestT = t;
+        best = e;
+      }
+    }
+    if (best >= 0 && bestT <= reach) return best;
+    if (reach > 2 * extent) return best;
+  }
+}
+
+/**
+ * Straight stretches between facing walls, in typed-array-like columns. Stretch s runs along its wall a from
+ * (cx0, cy0) to (cx1, cy1) on the midline, half-width r; end 2s is its start, 2s + 1 its end.
+ */
+class StretchList {
+  n = 0;
+  a: number[] = [];
+  b: number[] = [];
+  cx0: number[] = [];
+  cy0: number[] = [];
+  cx1: number[] = [];
+  cy1: number[] = [];
+  r: number[] = [];
+  dx: number[] = [];
+  dy: number[] = [];
+  /** Wall intervals, two per stretch (on a: 2s, on b: 2s + 1): edge, parameter range (distance from its start). */
+  ivEdge: number[] = [];
+  ivLo: number[] = [];
+  ivHi: number[] = [];
+
+  /** Add the stretch between walls a and b if they overlap, face each other and nothing else comes nearer. */
+  tryPair(edges: Float64Array, ux: Float64Array, uy: Float64Array, len: Float64Array, a: number, b: number, grid: WallGrid, near: number[]): void {
+    const ax = edges[4 * a], ay = edges[4 * a + 1];
+    const dx = ux[a], dy = uy[a];
+    const nx = -dy, ny = dx;
+    const bx0 = edges[4 * b], by0 = edges[4 * b + 1], bx1 = edges[4 * b + 2], by1 = edges[4 * b + 3];
+    const d = (bx0 - ax) * nx + (by0 - ay) * ny;
+    if (!(d > 0)) return;
+    const t0 = (bx0 - ax) * dx + (by0 - ay) * dy, t1 = (bx1 - ax) * dx + (by1 - ay) * dy;
+    const lo = Math.max(0, Math.min(t0, t1)), hi = Math.min(len[a], Math.max(t0, t1));
+    if (!(hi - lo > 1e-9 * d)) return;
+    const r = d / 2;
+    const mx0 = ax + dx * lo + nx * r, my0 = ay + dy * lo + ny * r;
+    const mx1 = ax + dx * hi + nx * r, my1 = ay + dy * hi + ny * r;
+    const clear = r * (1 - CLEARANCE_SLACK);
+    grid.collect(Math.min(mx0, mx1) - r, Math.min(my0, my1) - r, Math.max(mx0, mx1) + r, Math.max(my0, my1) + r, near);
+    for (const e of near) {
+      if (e === a || e === b) continue;
+      const ex0 = edges[4 * e], ey0 = edges[4 * e + 1], ex1 = edges[4 * e + 2], ey1 = edges[4 * e + 3];
+      if (segSegDist2(mx0, my0, mx1, my1, ex0, ey0, ex1, ey1) >= clear * clear) continue;
+      // A wall across the stretch's end (a flat dead end) closes it; any other wall this near breaks it.
+      if (onEnd(ex0, ey0, ex1, ey1, mx0, my0, dx, dy, r) || onEnd(ex0, ey0, ex1, ey1, mx1, my1, dx, dy, r)) continue;
+      return;
+    }
+    this.n++;
+    this.a.push(a);
+    this.b.push(b);
+    this.cx0.push(mx0);
+    this.cy0.push(my0);
+    this.cx1.push(mx1);
+    this.cy1.push(my1);
+    this.r.push(r);
+    this.dx.push(dx);
+    this.dy.push(dy);
+    // On b (running the other way) the stretch's start is at the larger parameter.
+    const sb = (x: number, y: number) => (x - bx0) * ux[b] + (y - by0) * uy[b];
+    const bLo = Math.max(0, sb(ax + dx * hi, ay + dy * hi)), bHi = Math.min(len[b], sb(ax + dx * lo, ay + dy * lo));
+    this.ivEdge.push(a, b);
+    this.ivLo.push(lo, bLo);
+    this.ivHi.push(hi, bHi);
+  }
+
+  /** The stretch end at an interval's high end: on wall a that is the stretch's end, on wall b its start. */
+  hiEnd(iv: number): number {
+    return 2 * (iv >> 1) + (iv & 1 ? 0 : 1);
+  }
+  loEnd(iv: number): number {
+    return 2 * (iv >> 1) + (iv & 1 ? 1 : 0);
+  }
+
+  /** The wall point at an interval's high (or low) end, x y. */
+  point(edges: Float64Array, iv: number, high: boolean): [number, number] {
+    const e = this.ivEdge[iv];
+    const t = high ? this.ivHi[iv] : this.ivLo[iv];
+    const x0 = edges[4 * e], y0 = edges[4 * e + 1], x1 = edges[4 * e + 2], y1 = edges[4 * e + 3];
+    const l = Math.sqrt((x1 - x0) ** 2 + (y1 - y0) ** 2);
+    return [x0 + ((x1 - x0) * t) / l, y0 + ((y1 - y0) * t) / l];
+  }
+
+  /** endFrame into a scratch array (no allocation). */
+  endFrameInto(x: number, out: Float64Array): void {
+    const s = x >> 1;
+    const one = x & 1;
+    out[0] = one ? this.cx1[s] : this.cx0[s];
+    out[1] = one ? this.cy1[s] : this.cy0[s];
+    out[2] = one ? this.dx[s] : -this.dx[s];
+    out[3] = one ? this.dy[s] : -this.dy[s];
+  }
+
+  /** Centre of stretch end x and the direction out of the stretch there: cx, cy, dx, dy. */
+  endFrame(x: number): [number, number, number, number] {
+    const s = x >> 1;
+    return x & 1 ? [this.cx1[s], this.cy1[s], this.dx[s], this.dy[s]] : [this.cx0[s], this.cy0[s], -this.dx[s], -this.dy[s]];
+  }
+}
+
+/** Wall segment lies across the stretch end centred at (mx, my) (direction dx, dy, half-width r). */
+function onEnd(ex0: number, ey0: number, ex1: number, ey1: number, mx: number, my: number, dx: number, dy: number, r: number): boolean {
+  const tol = 1e-9 * r;
+  const along = (x: number, y: number) => Math.abs((x - mx) * dx + (y - my) * dy);
+  const across = (x: number, y: number) => Math.abs((x - mx) * -dy + (y - my) * dx);
+  return along(ex0, ey0) <= tol && along(ex1, ey1) <= tol && across(ex0, ey0) <= r + tol && across(ex1, ey1) <= r + tol;
+}
+
+/** Squared distance between segments PQ and AB (zero where they meet). */
+function segSegDist2(px: number, py: number, qx: number, qy: number, ax: number, ay: number, bx: number, by: number): number {
+  if (segmentsMeet(px, py, qx, qy, ax, ay, bx, by)) return 0;
+  return Math.min(segDist2(px, py, ax, ay, bx, by), segDist2(qx, qy, ax, ay, bx, by), segDist2(ax, ay, px, py, qx, qy), segDist2(bx, by, px, py, qx, qy));
+}
+
+/**
+ * The stretches' wall intervals sorted along each edge (order, with iStart[e] the first of edge e), or null
+ * where two overlap (one wall claimed by two stretches: not a plain channel).
+ */
+function wallIntervals(st: StretchList, nE: number): { order: Int32Array; iStart: Int32Array } | null {
+  const nI = st.ivEdge.length;
+  const iStart = new Int32Array(nE + 1);
+  for (let i = 0; i < nI; i++) iStart[st.ivEdge[i] + 1]++;
+  for (let e = 0; e < nE; e++) iStart[e + 1] += iStart[e];
+  const fill = iStart.slice(0, nE);
+  const order = new Int32Array(nI);
+  for (let i = 0; i < nI; i++) order[fill[st.ivEdge[i]]++] = i;
+  for (let e = 0; e < nE; e++) {
+    const k0 = iStart[e], k1 = iStart[e + 1];
+    if (k1 - k0 < 2) continue;
+    const part = Array.from(order.subarray(k0, k1)).sort((p, q) => st.ivLo[p] - st.ivLo[q]);
+    for (let k = 0; k < part.length; k++) {
+      order[k0 + k] = part[k];
+      if (k > 0 && st.ivLo[part[k]] < st.ivHi[part[k - 1]] - 1e-9 * st.r[part[k] >> 1]) return null;
+    }
+  }
+  return { order, iStart };
+}
+
+/**
+ * Least-squares meeting point of the ends' centrelines into out[0], out[1]; false where they do not meet at one
+ * point ahead of every end (out is also the scratch frame).
+ */
+function meetingPoint(st: StretchList, ends: Int32Array, tol: number, out: Float64Array): boolean {
+  let sxx = 0, sxy = 0, syy = 0, bx = 0, by = 0;
+  for (const x of ends) {
+    st.endFrameInto(x, out);
+    const [cx, cy, dx, dy] = out;
+    // (I − d dᵀ) p = (I − d dᵀ) c, summed over the ends.
+    const m00 = 1 - dx * dx, m01 = -dx * dy, m11 = 1 - dy * dy;
+    sxx += m00;
+    sxy += m01;
+    syy += m11;
+    bx += m00 * cx + m01 * cy;
+    by += m01 * cx + m11 * cy;
+  }
+  const det = sxx * syy - sxy * sxy;
+  let px: number, py: number;
+  if (det > 1e-6 * ends.length * ends.length) {
+    px = (syy * bx - sxy * by) / det;
+    py = (sxx * by - sxy * bx) / det;
+  } else {
+    // All parallel: two ends facing each other on one line and of one width (a wall split by a vertex).
+    if (ends.length !== 2) return false;
+    const ra = st.r[ends[0] >> 1], rb = st.r[ends[1] >> 1];
+    if (Math.abs(ra - rb) > 1e-6 * Math.max(ra, rb)) return false;
+    st.endFrameInto(ends[0], out);
+    const ax = out[0], ay = out[1];
+    st.endFrameInto(ends[1], out);
+    if (Math.sqrt((ax - out[0]) ** 2 + (ay - out[1]) ** 2) > tol) return false;
+    px = (ax + out[0]) / 2;
+    py = (ay + out[1]) / 2;
+  }
+  for (const x of ends) {
+    st.endFrameInto(x, out);
+    const [cx, cy, dx, dy] = out;
+    const off = Math.abs((px - cx) * dy - (py - cy) * dx);
+    const ahead = (px - cx) * dx + (py - cy) * dy;
+    if (off > tol || ahead < -tol) return false;
+  }
+  out[0] = px;
+  out[1] = py;
+  return true;
+}
+
+/**
+ * Centreline paths between junctions and dead ends, through bends; closed loops start and end at one bend.
+ * Each stretch keeps its constant width; within a joint (from a stretch's end to the joint's centre) the width is
+ * twice the exact distance to the nearest wall, as on the Voronoi reader's axis (so a crossing widens to w·√2).
+ */
+function tracePaths(st: StretchList, joints: Joints, minR: number): CentrelinePath[] {
+  const used = new Uint8Array(st.n);
+  const paths: CentrelinePath[] = [];
+  const arms = new ArmCache(joints, st, minR);
+  const frame = new Float64Array(4);
+  let points: [number, number][] = [];
+  let radii: number[] = [];
+  const push = (x: number, y: number, r: number) => {
+    const last = points[points.length - 1];
+    if (last && last[0] === x && last[1] === y) return;
+    points.push([x, y]);
+    radii.push(r);
+  };
+  /** From stretch end x's centre into its joint's centre (or the reverse, inward: from the joint's centre). */
+  const throughJoint = (x: number, inward: boolean) => {
+    const g = joints.of[x];
+    const r = st.r[x >> 1];
+    st.endFrameInto(x, frame);
+    const cx = frame[0], cy = frame[1];
+    const px = joints.x[g], py = joints.y[g];
+    if (joints.degree(x) === 1) {
+      // A dead end keeps the channel's width out to its end wall (as the Voronoi reader's dead ends do).
+      if (inward) push(px, py, r);
+      push(cx, cy, r);
+      if (!inward) push(px, py, r);
+      return;
+    }
+    const arm = arms.get(g, x, frame);
+    const n = arm.length / 3;
+    for (let k = 0; k < n; k++) {
+      const q = inward ? n - 1 - k : k;
+      push(px + arm[3 * q], py + arm[3 * q + 1], arm[3 * q + 2]);
+    }
+  };
+  const walk = (startEnd: number): CentrelinePath => {
+    points = [];
+    radii = [];
+    /** Joint centres of the bends passed, for the bend radius. */
+    const bends: number[] = [];
+    let rMax = 0;
+    let x = startEnd;
+    throughJoint(x, true);
+    for (;;) {
+      const s = x >> 1;
+      used[s] = 1;
+      rMax = Math.max(rMax, st.r[s]);
+      const out = x ^ 1;
+      throughJoint(out, false);
+      if (joints.degree(out) !== 2) break;
+      const g = joints.of[out];
+      bends.push(joints.x[g], joints.y[g]);
+      const next = joints.other(out);
+      if (used[next >> 1]) break;
+      throughJoint(next, true);
+      x = next;
+    }
+    // A run of bends (a drawn arc between facing walls) has the radius of three consecutive joint centres; a lone
+    // sharp corner has none, as a centreline polyline's vertex has none.
+    let bendRadius: number | null = null;
+    for (let k = 2; 2 * k + 1 < bends.length; k++) {
+      const R = circumradius(bends[2 * k - 4], bends[2 * k - 3], bends[2 * k - 2], bends[2 * k - 1], bends[2 * k], bends[2 * k + 1]);
+      if (R < 1000 * 2 * rMax && (bendRadius === null || R < bendRadius)) bendRadius = R;
+    }
+    return { points, radii, bendRadius };
+  };
+  for (let x = 0; x < 2 * st.n; x++) if (joints.degree(x) !== 2 && !used[x >> 1]) paths.push(walk(x));
+  for (let s = 0; s < st.n; s++) if (!used[s]) paths.push(walk(2 * s));
+  return paths;
+}
+
+/**
+ * Width profiles from a stretch's end to its joint's centre, as x y r triples relative to the centre, kept by the
+ * joint's shape: a mask repeats the same junction many times, and each shape's profiles are worked out once.
+ */
+class ArmCache {
+  /** Shapes: their walls relative to the centre (quantised, the key) and the arms worked out in them. */
+  private readonly byHash = new Map<number, number[]>();
+  private readonly shapes: { key: Float64Array; walls: Float64Array; arms: { c: [number, number, number]; arm: Float64Array }[] }[] = [];
+  private readonly shapeOf: Int32Array;
+  private readonly walls = { buf: new Float64Array(64) };
+  private key = new Float64Array(64);
+  private readonly q: number;
+
+  /** @param minR smallest half-width: shapes are compared to 1e-7 of it. */
+  constructor(
+    private readonly joints: Joints,
+    private readonly st: StretchList,
+    minR: number,
+  ) {
+    this.q = minR * 1e-7;
+    this.shapeOf = new Int32Array(joints.n).fill(-1);
+  }
+
+  /** The shape of joint g: found by its walls relative to its centre, or added. */
+  private shape(g: number, frame: Float64Array): number {
+    if (this.shapeOf[g] >= 0) return this.shapeOf[g];
+    const m = this.joints.wallsInto(g, this.st, frame, this.walls);
+    const w = this.walls.buf;
+    // The key in a scratch array (small typed arrays are slow to allocate), copied only when a new shape is kept.
+    if (this.key.length < m) this.key = new Float64Array(2 * m);
+    const key = this.key, q = this.q;
+    let h = 2166136261;
+    for (let k = 0; k < m; k++) {
+      key[k] = Math.round(w[k] / q);
+      h = Math.imul(h ^ (key[k] | 0), 16777619);
+    }
+    const list = this.byHash.get(h) ?? this.byHash.set(h, []).get(h)!;
+    for (const id of list) {
+      const e = this.shapes[id].key;
+      if (e.length !== m) continue;
+      let same = true;
+      for (let k = 0; k < m && same; k++) same = e[k] === key[k];
+      if (same) return (this.shapeOf[g] = id);
+    }
+    this.shapes.push({ key: key.slice(0, m), walls: w.slice(0, m), arms: [] });
+    list.push(this.shapes.length - 1);
+    return (this.shapeOf[g] = this.shapes.length - 1);
+  }
+
+  /** The profile from end x of a stretch into its joint g. */
+  get(g: number, x: number, frame: Float64Array): Float64Array {
+    const sh = this.shapes[this.shape(g, frame)];
+    this.st.endFrameInto(x, frame);
+    const cx = frame[0] - this.joints.x[g], cy = frame[1] - this.joints.y[g], r = this.st.r[x >> 1];
+    const q = this.q;
+    const kx = Math.round(cx / q), ky = Math.round(cy / q), kr = Math.round(r / q);
+    for (const a of sh.arms) if (a.c[0] === kx && a.c[1] === ky && a.c[2] === kr) return a.arm;
+    const arm = profileArm(sh.walls, sh.walls.length, cx, cy, r);
+    sh.arms.push({ c: [kx, ky, kr], arm });
+    return arm;
+  }
+}
+
+/**
+ * The width profile from (cx, cy) (a stretch's end, half-width r) to the origin (its joint's centre) through the
+ * walls w (m numbers, x0 y0 x1 y1 each): points where straight interpolation of the exact wall distance would be
+ * off by more than half WIDTH_TOLERANCE, found by halving (six levels at most); x y r triples.
+ */
+function profileArm(w: Float64Array, m: number, cx: number, cy: number, r: number): Float64Array {
+  const wall = (x: number, y: number) => {
+    let best = Infinity;
+    for (let k = 0; k < m; k += 4) best = Math.min(best, segDist2(x, y, w[k], w[k + 1], w[k + 2], w[k + 3]));
+    return Number.isFinite(best) ? Math.sqrt(best) : r;
+  };
+  const out: number[] = [cx, cy, r];
+  const split = (xa: number, ya: number, ra: number, xb: number, yb: number, rb: number, depth: number) => {
+    if (depth > 6) return;
+    const xm = (xa + xb) / 2, ym = (ya + yb) / 2;
+    const rm = wall(xm, ym);
+    if (Math.abs(rm - (ra + rb) / 2) <= 0.5 * WIDTH_TOLERANCE * Math.max(ra, rb, rm)) return;
+    split(xa, ya, ra, xm, ym, rm, depth + 1);
+    out.push(xm, ym, rm);
+    split(xm, ym, rm, xb, yb, rb, depth + 1);
+  };
+  const r0 = wall(0, 0);
+  split(cx, cy, r, 0, 0, r0, 0);
+  out.push(0, 0, r0);
+  return Float64Array.from(out);
+}
+
+/** Circumradius of three points (plane geometry: R = abc / 4·area); Infinity when collinear. */
+function circumradius(ax: number, ay: number, bx: number, by: number, cx: number, cy: number): number {
+  const ab = Math.sqrt((bx - ax) ** 2 + (by - ay) ** 2), bc = Math.sqrt((cx - bx) ** 2 + (cy - by) ** 2), ca = Math.sqrt((ax - cx) ** 2 + (ay - cy) ** 2);
+  const area2 = Math.abs((bx - ax) * (cy - ay) - (by - ay) * (cx - ax));
+  return area2 === 0 ? Infinity : (ab * bc * ca) / (2 * area2);
+}
