@@ -617,7 +617,11 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       const ax = read.axis;
       warnings.push({
         code: "outline_read",
-        message: `Layer "${l.name}": ${shapes} closed shape(s) read as mask outlines (${ax.regions} filled region(s), ${ax.holes} hole(s)) → ${ax.paths.length} centreline path(s). Tolerances from the smallest width found, ${um(ax.minWidthUnits)} µm: boundary sampled every ${um(ax.stepUnits)} µm, corner spurs shorter than ${um(ax.pruneLengthUnits)} µm pruned.${ax.notes.length ? ` ${ax.notes.join(" ")}` : ""}`,
+        message: `Layer "${l.name}": ${shapes} closed shape(s) read as mask outlines (${ax.regions} filled region(s), ${ax.holes} hole(s)) → ${ax.paths.length} centreline path(s). Tolerances from the smallest width found, ${um(ax.minWidthUnits)} µm: ${
+          ax.method === "paired walls"
+            ? `centrelines from facing wall pairs, shape within ${um(ax.toleranceStepUnits / 8)} µm.`
+            : `boundary sampled every ${um(ax.stepUnits)} µm, corner spurs shorter than ${um(ax.pruneLengthUnits)} µm pruned.`
+        }${ax.notes.length ? ` ${ax.notes.join(" ")}` : ""}`,
       });
     }
     const other = Object.entries(l.byType).filter(([t]) => !["LINE", "ARC", "LWPOLYLINE", "POLYLINE", "SPLINE", "ELLIPSE", "CIRCLE", "HATCH", "TEXT", "MTEXT"].includes(t));

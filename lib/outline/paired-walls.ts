@@ -382,14 +382,22 @@ class StretchList {
     const mx1 = ax + dx * hi + nx * r, my1 = ay + dy * hi + ny * r;
     const clear = r * (1 - CLEARANCE_SLACK);
     grid.collect(Math.min(mx0, mx1) - r, Math.min(my0, my1) - r, Math.max(mx0, mx1) + r, Math.max(my0, my1) + r, near);
+    let capped = false;
     for (const e of near) {
       if (e === a || e === b) continue;
       const ex0 = edges[4 * e], ey0 = edges[4 * e + 1], ex1 = edges[4 * e + 2], ey1 = edges[4 * e + 3];
       if (segSegDist2(mx0, my0, mx1, my1, ex0, ey0, ex1, ey1) >= clear * clear) continue;
       // A wall across the stretch's end (a flat dead end) closes it; any other wall this near breaks it.
-      if (onEnd(ex0, ey0, ex1, ey1, mx0, my0, dx, dy, r) || onEnd(ex0, ey0, ex1, ey1, mx1, my1, dx, dy, r)) continue;
+      if (onEnd(ex0, ey0, ex1, ey1, mx0, my0, dx, dy, r) || onEnd(ex0, ey0, ex1, ey1, mx1, my1, dx, dy, r)) {
+        capped = true;
+        continue;
+      }
       return;
     }
+    // Walls across the ends of a stretch no longer than it is wide are the sides of a channel running the other
+    // way (a rectangle's two short sides, or the far wall and the end of a side branch): not a stretch. A square
+    // is neither way, and left to the Voronoi reader.
+    if (capped && !(hi - lo > d)) return;
     this.n++;
     this.a.push(a);
     this.b.push(b);

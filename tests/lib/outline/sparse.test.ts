@@ -8,6 +8,9 @@ import { describe, expect, it } from "vitest";
 import { extractMedialAxis, type CentrelinePath } from "@/lib/outline/medial-axis";
 import { extractNetwork } from "@/lib/network/extract";
 import type { Ring } from "@/lib/outline/region";
+import { readDxf } from "@/lib/dxf/read";
+import { ringsOf } from "@/lib/outline/read";
+import type { CircleEntity, PathEntity } from "@/lib/dxf/types";
 
 const outDir = new URL("../../fixtures/outlines/", import.meta.url);
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
@@ -16,12 +19,17 @@ const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 const lengthOf = (p: CentrelinePath) => p.points.reduce((s, q, i) => (i === 0 ? 0 : s + Math.hypot(q[0] - p.points[i - 1][0], q[1] - p.points[i - 1][1])), 0);
 const rect = (x0: number, y0: number, x1: number, y1: number): Ring => [[x0, y0], [x1, y0], [x1, y1], [x0, y1]];
 
-describe("square grid of channels drawn as its mask", () => {
+// Both readers: the walls paired (the default for this mask) and the Voronoi diagram of sparse wall samples.
+for (const pairedWalls of [true, false]) describe(`square grid of channels drawn as its mask (${pairedWalls ? "paired walls" : "Voronoi"})`, () => {
   // n × n junctions at pitch 400, channels 50 wide: the outer square grown by half a width, each cell's opening a hole.
   const n = 5, pitch = 400, w = 50, far = (n - 1) * pitch;
   const rings: Ring[] = [rect(-w / 2, -w / 2, far + w / 2, far + w / 2)];
   for (let i = 0; i + 1 < n; i++) for (let j = 0; j + 1 < n; j++) rings.push(rect(i * pitch + w / 2, j * pitch + w / 2, (i + 1) * pitch - w / 2, (j + 1) * pitch - w / 2));
-  const axis = extractMedialAxis(rings);
+  const axis = extractMedialAxis(rings, undefined, { pairedWalls });
+
+  it("is read by the reader asked for", () => {
+    expect(axis.method).toBe(pairedWalls ? "paired walls" : "medial axis");
+  });
   const inner = (x: number, y: number) => [x, y].every((c) => Math.abs(c / pitch - Math.round(c / pitch)) < 1e-6 && c > 0 && c < far);
   const between = axis.paths.filter((p) => inner(...p.points[0]) && inner(...p.points.at(-1)!));
 
@@ -80,5 +88,12 @@ describe("T junction from its outline", () => {
     expect(rel(widest, (2 * 5 * 100e-6) / 8)).toBeLessThan(0.01);
     // Everywhere else the channel is its drawn 100 µm (Shapely buffer distance × 2).
     for (const s of net.segments) expect(rel(s.minWidthM ?? s.widthM, f.width_m)).toBeLessThan(0.005);
+    // The same from the Voronoi reader (the default reads this mask's walls as pairs): its widest half-width.
+    const d = readDxf(readFileSync(new URL(f.file, outDir)), { chordToleranceM: 1e-7 });
+    const shapes = d.entities.filter((e): e is PathEntity | CircleEntity => e.layer === "FLOW" && e.kind !== "text");
+    const voronoi = extractMedialAxis(ringsOf(shapes), undefined, { pairedWalls: false });
+    expect(voronoi.method).toBe("medial axis");
+    const widestR = Math.max(...voronoi.paths.flatMap((p) => p.radii));
+    expect(rel(widestR * 1e-6, (5 * 100e-6) / 8)).toBeLessThan(0.01);
   });
 });

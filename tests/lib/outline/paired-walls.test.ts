@@ -1,0 +1,186 @@
+/**
+ * The paired-wall reading (lib/outline/paired-walls.ts): masks drawn here by plane geometry (rectangles, mitred
+ * bends: the offset lines of a centreline, met pairwise) whose centreline lengths and widths are closed forms; the
+ * Shapely-buffer fixtures (tests/fixtures/outlines/generate.py) read both ways, paired and Voronoi, which must
+ * agree; and the shapes the pairing must leave to the Voronoi reader.
+ */
+import { readFileSync } from "node:fs";
+import { describe, expect, it } from "vitest";
+import { extractMedialAxis, type CentrelinePath, type MedialAxisResult } from "@/lib/outline/medial-axis";
+import { ringsOf } from "@/lib/outline/read";
+import { readDxf } from "@/lib/dxf/read";
+import type { Ring } from "@/lib/outline/region";
+import type { CircleEntity, PathEntity } from "@/lib/dxf/types";
+
+const outDir = new URL("../../fixtures/outlines/", import.meta.url);
+const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
+const lengthOf = (p: CentrelinePath) => p.points.reduce((s, q, i) => (i === 0 ? 0 : s + Math.hypot(q[0] - p.points[i - 1][0], q[1] - p.points[i - 1][1])), 0);
+const rect = (x0: number, y0: number, x1: number, y1: number): Ring => [[x0, y0], [x1, y0], [x1, y1], [x0, y1]];
+const near = (a: [number, number], b: [number, number], tol = 1e-6) => Math.hypot(a[0] - b[0], a[1] - b[1]) <= tol;
+
+/**
+ * The mitred outline of a polyline centreline of half-width h (flat ends): each side's offset lines met pairwise
+ * (plane geometry), the left side forward and the right side back.
+ */
+function mitred(line: [number, number][], h: number): Ring {
+  const side = (sign: number) => {
+    const pts: [number, number][] = [];
+    for (let i = 0; i < line.length; i++) {
+      const off = (k: number): [number, number, number, number] => {
+        const [ax, ay] = line[k], [bx, by] = line[k + 1];
+        const l = Math.hypot(bx - ax, by - ay);
+        const nx = (-(by - ay) / l) * h * sign, ny = ((bx - ax) / l) * h * sign;
+        return [ax + nx, ay + ny, (bx - ax) / l, (by - ay) / l];
+      };
+      if (i === 0) {
+        const [x, y] = off(0);
+        pts.push([x, y]);
+      } else if (i === line.length - 1) {
+        const [x, y, dx, dy] = off(i - 1);
+        const l = Math.hypot(line[i][0] - line[i - 1][0], line[i][1] - line[i - 1][1]);
+        pts.push([x + dx * l, y + dy * l]);
+      } else {
+        // Where the two offset lines meet: p + t·d = q + s·e.
+        const [px, py, dx, dy] = off(i - 1), [qx, qy, ex, ey] = off(i);
+        const t = ((qx - px) * ey - (qy - py) * ex) / (dx * ey - dy * ex);
+        pts.push([px + dx * t, py + dy * t]);
+      }
+    }
+    return pts;
+  };
+  return [...side(1), ...side(-1).reverse()];
+}
+
+describe("closed forms read from paired walls", () => {
+  it("an L bend from 50 to 100 wide: one path through the corner, the centreline's 2000 long, each arm its width", () => {
+    // Centreline (0,0) → (1000,0) → (1000,1000); flat ends. Widths 50 along the first arm, 100 along the second.
+    const ring: Ring = [[0, -25], [1050, -25], [1050, 1000], [950, 1000], [950, 25], [0, 25]];
+    const axis = extractMedialAxis([ring]);
+    expect(axis.method).toBe("paired walls");
+    expect(axis.paths).toHaveLength(1);
+    const p = axis.paths[0];
+    expect(rel(lengthOf(p), 2000)).toBeLessThan(1e-9);
+    expect(p.points.some((q) => near(q, [1000, 0]))).toBe(true);
+    // Half-widths: 25 up to the first arm's end at x = 950, 50 from the second arm's start at y = 25.
+    p.points.forEach((q, i) => {
+      if (q[1] === 0 && q[0] <= 950) expect(p.radii[i]).toBeCloseTo(25, 9);
+      if (q[0] === 1000 && q[1] >= 25) expect(p.radii[i]).toBeCloseTo(50, 9);
+    });
+    // A sharp corner has no bend radius (as a polyline centreline's vertex has none).
+    expect(p.bendRadius).toBeNull();
+    expect(axis.minWidthUnits).toBeCloseTo(50, 9);
+  });
+
+  it("a T whose branch is half as wide: the three paths meet on the through channel's centreline", () => {
+    // Through channel 100 wide on y = 0 from x = 0 to 2000; branch 50 wide on x = 1000 from y = −1000 up.
+    const ring: Ring = [[0, -50], [975, -50], [975, -1000], [1025, -1000], [1025, -50], [2000, -50], [2000, 50], [0, 50]];
+    const axis = extractMedialAxis([ring]);
+    expect(axis.method).toBe("paired walls");
+    expect(axis.paths).toHaveLength(3);
+    for (const p of axis.paths) {
+      expect(near(p.points[0], [1000, 0]) || near(p.points.at(-1)!, [1000, 0])).toBe(true);
+      expect(rel(lengthOf(p), 1000)).toBeLessThan(1e-9);
+    }
+    const radii = axis.paths.map((p) => Math.min(...p.radii)).sort((a, b) => a - b);
+    expect(radii[0]).toBeCloseTo(25, 9);
+    expect(radii[1]).toBeCloseTo(50, 9);
+    expect(radii[2]).toBeCloseTo(50, 9);
+  });
+
+  it("a 45° mitred bend: one path the centreline's length, 100 wide, no bend radius", () => {
+    const s = Math.SQRT1_2;
+    const line: [number, number][] = [[0, 0], [1000, 0], [1000 + 1000 * s, 1000 * s]];
+    const axis = extractMedialAxis([mitred(line, 50)]);
+    expect(axis.method).toBe("paired walls");
+    expect(axis.paths).toHaveLength(1);
+    expect(rel(lengthOf(axis.paths[0]), 2000)).toBeLessThan(1e-9);
+    expect(rel(Math.min(...axis.paths[0].radii), 50)).toBeLessThan(1e-9);
+    expect(axis.paths[0].bendRadius).toBeNull();
+  });
+
+  it("a square loop channel: one closed path round the hole, four sides of 1000", () => {
+    const axis = extractMedialAxis([rect(-25, -25, 1025, 1025), rect(25, 25, 975, 975)]);
+    expect(axis.method).toBe("paired walls");
+    expect(axis.paths).toHaveLength(1);
+    const p = axis.paths[0];
+    expect(near(p.points[0], p.points.at(-1)!)).toBe(true);
+    expect(rel(lengthOf(p), 4000)).toBeLessThan(1e-9);
+    expect(axis.regions).toBe(1);
+    expect(axis.holes).toBe(1);
+  });
+
+  it("two separate channels: two regions, each from end wall to end wall", () => {
+    const axis = extractMedialAxis([rect(0, 0, 5000, 100), rect(0, 300, 3000, 350)]);
+    expect(axis.method).toBe("paired walls");
+    expect(axis.regions).toBe(2);
+    expect(axis.paths.map(lengthOf).sort((a, b) => a - b)).toEqual([3000, 5000]);
+  });
+});
+
+/**
+ * A round chamber of radius R with channels (half-width h, reaching out to radius R + L) at the given angles,
+ * as one ring: the circle's arcs between the channels sampled every ≤ 5°, each channel out and back.
+ */
+function chamberWithArms(R: number, h: number, L: number, angles: number[]): Ring {
+  const ring: Ring = [];
+  const da = Math.asin(h / R);
+  const at = (a: number, r: number): [number, number] => [r * Math.cos(a), r * Math.sin(a)];
+  angles.forEach((a, k) => {
+    const next = angles[(k + 1) % angles.length] + (k + 1 === angles.length ? 2 * Math.PI : 0);
+    const ux = Math.cos(a), uy = Math.sin(a), nx = -uy, ny = ux;
+    const foot = R * Math.cos(da);
+    // Right wall out, cap, left wall back (the channel's walls meet the circle at a ± asin(h/R)).
+    ring.push([ux * foot + nx * -h, uy * foot + ny * -h], [ux * (R + L) + nx * -h, uy * (R + L) + ny * -h], [ux * (R + L) + nx * h, uy * (R + L) + ny * h], [ux * foot + nx * h, uy * foot + ny * h]);
+    const a0 = a + da, a1 = next - da;
+    const steps = Math.ceil((a1 - a0) / ((5 * Math.PI) / 180));
+    for (let i = 1; i < steps; i++) ring.push(at(a0 + ((a1 - a0) * i) / steps, R));
+  });
+  return ring;
+}
+
+describe("shapes left to the Voronoi reader", () => {
+  const cases: [string, Ring[]][] = [
+    ["a round chamber fed by three radial channels (their centrelines meet, but far beyond the channels' reach)", [chamberWithArms(500, 50, 1000, [Math.PI / 2, (7 * Math.PI) / 6, (11 * Math.PI) / 6])]],
+    ["a square chamber (no direction is the channel's)", [rect(0, 0, 1000, 1000)]],
+    ["a rectangular chamber fed by a channel at each end", [[[0, -25], [1000, -25], [1000, -250], [2000, -250], [2000, -25], [3000, -25], [3000, 25], [2000, 25], [2000, 250], [1000, 250], [1000, 25], [0, 25]]]],
+    ["a tapered channel (its walls not parallel)", [[[0, -50], [5000, -25], [5000, 25], [0, 50]]]],
+    ["a post in a channel", [rect(0, -100, 2000, 100), rect(900, -20, 1100, 20)]],
+    ["a jog: a cross whose arms do not line up", [[[0, -25], [975, -25], [975, -1000], [1025, -1000], [1025, -25], [2000, -25], [2000, 25], [1075, 25], [1075, 1000], [1025, 1000], [1025, 25], [0, 25]]]],
+    ["overlapping shapes (two bars drawn across each other)", [rect(0, -25, 2000, 25), rect(975, -1000, 1025, 1000)]],
+  ];
+  for (const [name, rings] of cases) {
+    it(name, () => {
+      const axis = extractMedialAxis(rings);
+      expect(axis.method).toBe("medial axis");
+      expect(axis.paths.length).toBeGreaterThan(0);
+    });
+  }
+});
+
+describe("Shapely-buffer fixtures read both ways agree", () => {
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any
+  const outlines: Record<string, any> = JSON.parse(readFileSync(new URL("expected.json", outDir), "utf8")).fixtures;
+  const read = (file: string, pairedWalls: boolean): MedialAxisResult => {
+    const d = readDxf(readFileSync(new URL(file, outDir)), { chordToleranceM: 1e-7 });
+    const shapes = d.entities.filter((e): e is PathEntity | CircleEntity => e.layer === "FLOW" && e.kind !== "text");
+    return extractMedialAxis(ringsOf(shapes), undefined, { pairedWalls });
+  };
+  const files: Record<string, string> = {
+    "straight-r2000-outline": outlines["straight-r2000-outline"].file,
+    "serpentine-r12-outline": outlines["serpentine-r12-outline"].file,
+    "tee-um-r2000-outline": outlines["tee-um-r2000-outline"].file,
+    "cross-r2000-outline": outlines["cross-r2000-outline"].file,
+    "stadium-hatch-edges": "stadium-hatch-edges.dxf",
+  };
+  for (const [name, file] of Object.entries(files)) {
+    it(`${name}: same paths, total length within 1 %, narrowest width within 0.5 %`, () => {
+      const paired = read(file, true), voronoi = read(file, false);
+      expect(paired.method).toBe("paired walls");
+      expect(voronoi.method).toBe("medial axis");
+      expect(paired.paths).toHaveLength(voronoi.paths.length);
+      const total = (a: MedialAxisResult) => a.paths.reduce((s, p) => s + lengthOf(p), 0);
+      expect(rel(total(paired), total(voronoi))).toBeLessThan(0.01);
+      expect(rel(paired.minWidthUnits, voronoi.minWidthUnits)).toBeLessThan(0.005);
+    });
+  }
+});
