@@ -7,7 +7,11 @@
  * Printed, never asserted: the cold first run, the median of the next 15, and the
  * median of 15 after 15 more (JIT warmed). Export: run().
  */
+import { readDxf } from "../lib/dxf/read";
+import type { CircleEntity, PathEntity } from "../lib/dxf/types";
 import { extractNetwork } from "../lib/network/extract";
+import { extractMedialAxis } from "../lib/outline/medial-axis";
+import { ringsOf } from "../lib/outline/read";
 
 const PITCH_UM = 400;
 const WIDTH_UM = 50;
@@ -99,4 +103,22 @@ export async function run(): Promise<void> {
   console.log(`ratio outline / centreline: ${(m / l).toFixed(2)}× (target < 3×)`);
   console.log(`after ${RUNS} more runs each: centreline ${lw.toFixed(0)} ms, outline ${mw.toFixed(0)} ms (medians of ${RUNS}), ratio ${(mw / lw).toFixed(2)}×`);
   console.log(note);
+
+  // The mask's medial axis alone, by each reader: the walls paired (what the outline path above used) and the
+  // Voronoi diagram of wall samples (what a mask with chambers, tapers or posts gets), on the same rings.
+  const drawing = readDxf(maskText, { chordToleranceM: 1e-7 });
+  const rings = ringsOf(drawing.entities.filter((e): e is PathEntity | CircleEntity => e.layer === "FLOW" && e.kind !== "text"));
+  const axisMs = (pairedWalls: boolean) => {
+    const ts: number[] = [];
+    for (let k = 0; k < RUNS; k++) {
+      const t0 = performance.now();
+      extractMedialAxis(rings, undefined, { pairedWalls });
+      ts.push(performance.now() - t0);
+    }
+    return median(ts);
+  };
+  axisMs(true);
+  axisMs(false);
+  const [pw, vo] = [axisMs(true), axisMs(false)];
+  console.log(`medial axis alone (median of ${RUNS}, warm): paired walls ${pw.toFixed(1)} ms, Voronoi of wall samples ${vo.toFixed(1)} ms (${(vo / pw).toFixed(1)}× the paired reading)`);
 }

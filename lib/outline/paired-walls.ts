@@ -383,9 +383,12 @@ class StretchList {
     const clear = r * (1 - CLEARANCE_SLACK);
     grid.collect(Math.min(mx0, mx1) - r, Math.min(my0, my1) - r, Math.max(mx0, mx1) + r, Math.max(my0, my1) + r, near);
     let capped = false;
+    const bx0m = Math.min(mx0, mx1) - clear, bx1m = Math.max(mx0, mx1) + clear, by0m = Math.min(my0, my1) - clear, by1m = Math.max(my0, my1) + clear;
     for (const e of near) {
       if (e === a || e === b) continue;
       const ex0 = edges[4 * e], ey0 = edges[4 * e + 1], ex1 = edges[4 * e + 2], ey1 = edges[4 * e + 3];
+      // Outside the midline's box grown by the clearance: farther than the clearance (the common case, no distance).
+      if (Math.max(ex0, ex1) <= bx0m || Math.min(ex0, ex1) >= bx1m || Math.max(ey0, ey1) <= by0m || Math.min(ey0, ey1) >= by1m) continue;
       if (segSegDist2(mx0, my0, mx1, my1, ex0, ey0, ex1, ey1) >= clear * clear) continue;
       // A wall across the stretch's end (a flat dead end) closes it; any other wall this near breaks it.
       if (onEnd(ex0, ey0, ex1, ey1, mx0, my0, dx, dy, r) || onEnd(ex0, ey0, ex1, ey1, mx1, my1, dx, dy, r)) {
