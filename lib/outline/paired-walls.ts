@@ -16,8 +16,15 @@
 import { WIDTH_TOLERANCE, type CentrelinePath, type MedialAxisResult } from "./medial-axis";
 import { segDist2, segmentsMeet, type OrientedRings, type WallGrid } from "./region";
 
-/** Walls count as antiparallel when the sine of the angle between them is below this (drawing precision). */
-const PARALLEL_SIN = 1e-9;
+/** A wall's ray may pair it with another whose direction is this close to opposite (sine of the angle): a coarse filter. */
+const PARALLEL_SIN = 1e-3;
+/**
+ * Two walls are parallel where their distance changes by less than this fraction over their overlap: coordinates
+ * rounded to a drawing grid (1 nm on a 50 µm channel at any angle) pass, a taper of 0.5 % (WIDTH_TOLERANCE) does not.
+ */
+const PARALLEL_TOLERANCE = 1e-4;
+/** Points this close to a line, in half-widths, are on it (coordinates rounded to the drawing grid). */
+const ON_LINE = 1e-4;
 /**
  * A stretch is a channel only where no other wall comes nearer its midline than its half-width, less this
  * fraction (tessellated round caps and bends come within 0.1 % of it at 5° steps).
@@ -372,10 +379,14 @@ class StretchList {
     const dx = ux[a], dy = uy[a];
     const nx = -dy, ny = dx;
     const bx0 = edges[4 * b], by0 = edges[4 * b + 1], bx1 = edges[4 * b + 2], by1 = edges[4 * b + 3];
-    const d = (bx0 - ax) * nx + (by0 - ay) * ny;
-    if (!(d > 0)) return;
+    const d0 = (bx0 - ax) * nx + (by0 - ay) * ny, d1 = (bx1 - ax) * nx + (by1 - ay) * ny;
     const t0 = (bx0 - ax) * dx + (by0 - ay) * dy, t1 = (bx1 - ax) * dx + (by1 - ay) * dy;
     const lo = Math.max(0, Math.min(t0, t1)), hi = Math.min(len[a], Math.max(t0, t1));
+    // B's distance from A at the overlap's two ends: parallel within PARALLEL_TOLERANCE, its mean the width.
+    const at = (t: number) => (t1 === t0 ? d0 : d0 + ((d1 - d0) * (t - t0)) / (t1 - t0));
+    const dLo = at(lo), dHi = at(hi);
+    const d = (dLo + dHi) / 2;
+    if (!(d > 0) || Math.abs(dHi - dLo) > PARALLEL_TOLERANCE * d) return;
     if (!(hi - lo > 1e-9 * d)) return;
     const r = d / 2;
     const mx0 = ax + dx * lo + nx * r, my0 = ay + dy * lo + ny * r;
@@ -455,7 +466,7 @@ class StretchList {
 
 /** Wall segment lies across the stretch end centred at (mx, my) (direction dx, dy, half-width r). */
 function onEnd(ex0: number, ey0: number, ex1: number, ey1: number, mx: number, my: number, dx: number, dy: number, r: number): boolean {
-  const tol = 1e-9 * r;
+  const tol = ON_LINE * r;
   const along = (x: number, y: number) => Math.abs((x - mx) * dx + (y - my) * dy);
   const across = (x: number, y: number) => Math.abs((x - mx) * -dy + (y - my) * dx);
   return along(ex0, ey0) <= tol && along(ex1, ey1) <= tol && across(ex0, ey0) <= r + tol && across(ex1, ey1) <= r + tol;
@@ -485,7 +496,7 @@ function wallIntervals(st: StretchList, nE: number): { order: Int32Array; iStart
     const part = Array.from(order.subarray(k0, k1)).sort((p, q) => st.ivLo[p] - st.ivLo[q]);
     for (let k = 0; k < part.length; k++) {
       order[k0 + k] = part[k];
-      if (k > 0 && st.ivLo[part[k]] < st.ivHi[part[k - 1]] - 1e-9 * st.r[part[k] >> 1]) return null;
+      if (k > 0 && st.ivLo[part[k]] < st.ivHi[part[k - 1]] - ON_LINE * st.r[part[k] >> 1]) return null;
     }
   }
   return { order, iStart };
@@ -517,7 +528,7 @@ function meetingPoint(st: StretchList, ends: Int32Array, tol: number, out: Float
     // All parallel: two ends facing each other on one line and of one width (a wall split by a vertex).
     if (ends.length !== 2) return false;
     const ra = st.r[ends[0] >> 1], rb = st.r[ends[1] >> 1];
-    if (Math.abs(ra - rb) > 1e-6 * Math.max(ra, rb)) return false;
+    if (Math.abs(ra - rb) > PARALLEL_TOLERANCE * Math.max(ra, rb)) return false;
     st.endFrameInto(ends[0], out);
     const ax = out[0], ay = out[1];
     st.endFrameInto(ends[1], out);

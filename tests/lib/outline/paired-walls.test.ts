@@ -138,6 +138,25 @@ function chamberWithArms(R: number, h: number, L: number, angles: number[]): Rin
   return ring;
 }
 
+describe("drawings rounded to a grid", () => {
+  // The narrow-branch T of above turned by 0.3 rad and π/4 with its coordinates rounded to 1 nm (1e-3 drawing
+  // units of 1 µm, a common mask database grid): the walls stay parallel to well within the widths' tolerance.
+  const tee: Ring = [[0, -50], [975, -50], [975, -1000], [1025, -1000], [1025, -50], [2000, -50], [2000, 50], [0, 50]];
+  const turned = (a: number): Ring => tee.map(([x, y]) => [Math.round((x * Math.cos(a) - y * Math.sin(a)) * 1e3) / 1e3, Math.round((x * Math.sin(a) + y * Math.cos(a)) * 1e3) / 1e3]);
+  for (const a of [0.3, Math.PI / 4]) {
+    it(`a T turned by ${a.toFixed(2)} rad on a 1 nm grid: still paired, three arms of 1000 within 1e-5`, () => {
+      const axis = extractMedialAxis([turned(a)]);
+      expect(axis.method).toBe("paired walls");
+      expect(axis.paths).toHaveLength(3);
+      for (const p of axis.paths) expect(rel(lengthOf(p), 1000)).toBeLessThan(1e-5);
+    });
+  }
+
+  it("a channel narrowing by 1 % over its length is a taper, not parallel walls", () => {
+    expect(extractMedialAxis([[[0, -50], [5000, -49.5], [5000, 49.5], [0, 50]]]).method).toBe("medial axis");
+  });
+});
+
 describe("shapes left to the Voronoi reader", () => {
   const cases: [string, Ring[]][] = [
     ["a round chamber fed by three radial channels (their centrelines meet, but far beyond the channels' reach)", [chamberWithArms(500, 50, 1000, [Math.PI / 2, (7 * Math.PI) / 6, (11 * Math.PI) / 6])]],
