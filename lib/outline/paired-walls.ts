@@ -15,6 +15,7 @@
  */
 import { WIDTH_TOLERANCE, type CentrelinePath, type MedialAxisResult } from "./medial-axis";
 import { segDist2, segmentsMeet, type OrientedRings, type WallGrid } from "./region";
+import { douglasPeucker } from "./simplify";
 
 /** A wall's ray may pair it with another whose direction is this close to opposite (sine of the angle): a coarse filter. */
 const PARALLEL_SIN = 1e-3;
@@ -686,30 +687,43 @@ class ArmCache {
   }
 }
 
+/** Samples along a joint's arm the width profile is chosen from (64: the flare's peak within 1/64 of the arm). */
+const ARM_SAMPLES = 64;
+
 /**
  * The width profile from (cx, cy) (a stretch's end, half-width r) to the origin (its joint's centre) through the
- * walls w (m numbers, x0 y0 x1 y1 each): points where straight interpolation of the exact wall distance would be
- * off by more than half WIDTH_TOLERANCE, found by halving (six levels at most); x y r triples.
+ * walls w (m numbers, x0 y0 x1 y1 each): the exact wall distance at ARM_SAMPLES + 1 points, kept where straight
+ * interpolation between the points kept would be off by more than WIDTH_TOLERANCE (Douglas–Peucker on the
+ * width, as the Voronoi reader's paths); x y r triples. Worked out once per joint shape (ArmCache).
  */
 function profileArm(w: Float64Array, m: number, cx: number, cy: number, r: number): Float64Array {
-  const wall = (x: number, y: number) => {
+  const n = ARM_SAMPLES + 1;
+  const rs = new Float64Array(n);
+  for (let k = 0; k < n; k++) {
+    const f = k / ARM_SAMPLES, x = cx * (1 - f), y = cy * (1 - f);
     let best = Infinity;
-    for (let k = 0; k < m; k += 4) best = Math.min(best, segDist2(x, y, w[k], w[k + 1], w[k + 2], w[k + 3]));
-    return Number.isFinite(best) ? Math.sqrt(best) : r;
-  };
-  const out: number[] = [cx, cy, r];
-  const split = (xa: number, ya: number, ra: number, xb: number, yb: number, rb: number, depth: number) => {
-    if (depth > 6) return;
-    const xm = (xa + xb) / 2, ym = (ya + yb) / 2;
-    const rm = wall(xm, ym);
-    if (Math.abs(rm - (ra + rb) / 2) <= 0.5 * WIDTH_TOLERANCE * Math.max(ra, rb, rm)) return;
-    split(xa, ya, ra, xm, ym, rm, depth + 1);
-    out.push(xm, ym, rm);
-    split(xm, ym, rm, xb, yb, rb, depth + 1);
-  };
-  const r0 = wall(0, 0);
-  split(cx, cy, r, 0, 0, r0, 0);
-  out.push(0, 0, r0);
+    for (let q = 0; q < m; q += 4) best = Math.min(best, segDist2(x, y, w[q], w[q + 1], w[q + 2], w[q + 3]));
+    rs[k] = k === 0 || !Number.isFinite(best) ? r : Math.sqrt(best);
+  }
+  const keep = new Uint8Array(n);
+  douglasPeucker(n, keep, [], (i, j) => {
+    let best = -1, worst = 1;
+    for (let k = i + 1; k < j; k++) {
+      const lin = rs[i] + ((rs[j] - rs[i]) * (k - i)) / (j - i);
+      const bad = Math.abs(rs[k] - lin) / (WIDTH_TOLERANCE * Math.max(rs[k], lin));
+      if (bad > worst) {
+        worst = bad;
+        best = k;
+      }
+    }
+    return best;
+  });
+  const out: number[] = [];
+  for (let k = 0; k < n; k++) {
+    if (!keep[k]) continue;
+    const f = k / ARM_SAMPLES;
+    out.push(cx * (1 - f), cy * (1 - f), rs[k]);
+  }
   return Float64Array.from(out);
 }
 
