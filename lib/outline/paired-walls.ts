@@ -14,7 +14,7 @@
  * geometry on the wall segments in a grid (region.ts WallGrid).
  */
 import { WIDTH_TOLERANCE, type CentrelinePath, type MedialAxisResult } from "./medial-axis";
-import { segDist2, segmentsMeet, type OrientedRings, type WallGrid } from "./region";
+import { segDist2, type OrientedRings, type WallGrid } from "./region";
 import { douglasPeucker } from "./simplify";
 
 /** A wall's ray may pair it with another whose direction is this close to opposite (sine of the angle): a coarse filter. */
@@ -154,6 +154,10 @@ export function readPairedWalls(prep: OrientedRings, edges: Float64Array, ringEd
     if (k1 - k0 === 1) {
       const x = joints.ends[k0];
       if (!selfJoined[x]) return null;
+      // A dead end closes a channel, which is longer than wide; a stretch no longer than wide ending in walls is
+      // part of something else (the short sides of a taper facing each other, a chamber).
+      const s = x >> 1;
+      if (!(Math.sqrt((st.cx1[s] - st.cx0[s]) ** 2 + (st.cy1[s] - st.cy0[s]) ** 2) > 2 * st.r[s])) return null;
       // A dead end: on along the centreline to the end wall (flat: already there; round: one half-width on).
       st.endFrameInto(x, frame);
       const [cx, cy, dx, dy] = frame;
@@ -183,6 +187,18 @@ export function readPairedWalls(prep: OrientedRings, edges: Float64Array, ringEd
     }
     joints.x[g] = px;
     joints.y[g] = py;
+  }
+
+  // A stretch no longer than wide is a piece of a curved channel (a tessellated arc's chord): each of its ends
+  // must be a bend on to a stretch of its own width. Anything else so squat (two walls facing across a chamber,
+  // or past a post, with channels on either side) is not a channel of its own.
+  for (let s = 0; s < nS; s++) {
+    if (Math.sqrt((st.cx1[s] - st.cx0[s]) ** 2 + (st.cy1[s] - st.cy0[s]) ** 2) > 2 * st.r[s]) continue;
+    for (const x of [2 * s, 2 * s + 1]) {
+      if (joints.degree(x) !== 2) return null;
+      const other = st.r[joints.other(x) >> 1];
+      if (Math.abs(other - st.r[s]) > PARALLEL_TOLERANCE * st.r[s]) return null;
+    }
   }
 
   // 5. Paths: from each junction or dead end along stretches through the bends (degree-2 joints) to the next.
@@ -394,24 +410,34 @@ class StretchList {
     const mx1 = ax + dx * hi + nx * r, my1 = ay + dy * hi + ny * r;
     const clear = r * (1 - CLEARANCE_SLACK);
     grid.collect(Math.min(mx0, mx1) - r, Math.min(my0, my1) - r, Math.max(mx0, mx1) + r, Math.max(my0, my1) + r, near);
+    // In the stretch's frame (t along a from its start, o across towards b): no other wall may come within the
+    // clearance of the midline o = r between the two ends (lo < t < hi); walls lying on an end line across the
+    // stretch close it (a flat dead end). Beyond the ends, in the joints, walls are the joints' to check.
+    const tolT = ON_LINE * r;
     let capped = false;
-    const bx0m = Math.min(mx0, mx1) - clear, bx1m = Math.max(mx0, mx1) + clear, by0m = Math.min(my0, my1) - clear, by1m = Math.max(my0, my1) + clear;
     for (const e of near) {
       if (e === a || e === b) continue;
-      const ex0 = edges[4 * e], ey0 = edges[4 * e + 1], ex1 = edges[4 * e + 2], ey1 = edges[4 * e + 3];
-      // Outside the midline's box grown by the clearance: farther than the clearance (the common case, no distance).
-      if (Math.max(ex0, ex1) <= bx0m || Math.min(ex0, ex1) >= bx1m || Math.max(ey0, ey1) <= by0m || Math.min(ey0, ey1) >= by1m) continue;
-      if (segSegDist2(mx0, my0, mx1, my1, ex0, ey0, ex1, ey1) >= clear * clear) continue;
-      // A wall across the stretch's end (a flat dead end) closes it; any other wall this near breaks it.
-      if (onEnd(ex0, ey0, ex1, ey1, mx0, my0, dx, dy, r) || onEnd(ex0, ey0, ex1, ey1, mx1, my1, dx, dy, r)) {
+      const ex0 = edges[4 * e] - ax, ey0 = edges[4 * e + 1] - ay, ex1 = edges[4 * e + 2] - ax, ey1 = edges[4 * e + 3] - ay;
+      const ta = ex0 * dx + ey0 * dy, tb = ex1 * dx + ey1 * dy;
+      const oa = ex0 * nx + ey0 * ny, ob = ex1 * nx + ey1 * ny;
+      const across = (o: number) => o >= -tolT && o <= d + tolT;
+      if (((Math.abs(ta - lo) <= tolT && Math.abs(tb - lo) <= tolT) || (Math.abs(ta - hi) <= tolT && Math.abs(tb - hi) <= tolT)) && across(oa) && across(ob)) {
         capped = true;
         continue;
       }
-      return;
+      // The part of the wall strictly between the ends, as parameters s0..s1 along it.
+      let s0 = 0, s1 = 1;
+      if (ta === tb) {
+        if (!(ta > lo + tolT && ta < hi - tolT)) continue;
+      } else {
+        const sLo = (lo + tolT - ta) / (tb - ta), sHi = (hi - tolT - ta) / (tb - ta);
+        s0 = Math.max(0, Math.min(sLo, sHi));
+        s1 = Math.min(1, Math.max(sLo, sHi));
+        if (!(s1 > s0)) continue;
+      }
+      const o0 = oa + (ob - oa) * s0 - r, o1 = oa + (ob - oa) * s1 - r;
+      if (o0 * o1 <= 0 || Math.min(Math.abs(o0), Math.abs(o1)) < clear) return;
     }
-    // Walls across the ends of a stretch no longer than it is wide are the sides of a channel running the other
-    // way (a rectangle's two short sides, or the far wall and the end of a side branch): not a stretch. A square
-    // is neither way, and left to the Voronoi reader.
     if (capped && !(hi - lo > d)) return;
     this.n++;
     this.a.push(a);
@@ -463,20 +489,6 @@ class StretchList {
     const s = x >> 1;
     return x & 1 ? [this.cx1[s], this.cy1[s], this.dx[s], this.dy[s]] : [this.cx0[s], this.cy0[s], -this.dx[s], -this.dy[s]];
   }
-}
-
-/** Wall segment lies across the stretch end centred at (mx, my) (direction dx, dy, half-width r). */
-function onEnd(ex0: number, ey0: number, ex1: number, ey1: number, mx: number, my: number, dx: number, dy: number, r: number): boolean {
-  const tol = ON_LINE * r;
-  const along = (x: number, y: number) => Math.abs((x - mx) * dx + (y - my) * dy);
-  const across = (x: number, y: number) => Math.abs((x - mx) * -dy + (y - my) * dx);
-  return along(ex0, ey0) <= tol && along(ex1, ey1) <= tol && across(ex0, ey0) <= r + tol && across(ex1, ey1) <= r + tol;
-}
-
-/** Squared distance between segments PQ and AB (zero where they meet). */
-function segSegDist2(px: number, py: number, qx: number, qy: number, ax: number, ay: number, bx: number, by: number): number {
-  if (segmentsMeet(px, py, qx, qy, ax, ay, bx, by)) return 0;
-  return Math.min(segDist2(px, py, ax, ay, bx, by), segDist2(qx, qy, ax, ay, bx, by), segDist2(ax, ay, px, py, qx, qy), segDist2(bx, by, px, py, qx, qy));
 }
 
 /**

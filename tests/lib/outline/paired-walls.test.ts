@@ -138,6 +138,38 @@ function chamberWithArms(R: number, h: number, L: number, angles: number[]): Rin
   return ring;
 }
 
+describe("irregular grids with a width per line", () => {
+  // n × n lines at irregular spacing, each line its own width (30–100): crossings of unequal widths, and wide
+  // channels ending on narrow ones at the border. Closed form: the centrelines are the n vertical and n horizontal
+  // lines, n·(X + Y) long in all. Seeded (Park–Miller minimal standard generator), so every run draws the same grids.
+  let seed = 7;
+  const rnd = () => (seed = (seed * 16807) % 2147483647) / 2147483647;
+  for (let trial = 0; trial < 6; trial++) {
+    const n = 3 + Math.floor(rnd() * 4);
+    const xs = [0], ys = [0], wx: number[] = [], wy: number[] = [];
+    for (let i = 1; i < n; i++) {
+      xs.push(xs[i - 1] + 300 + rnd() * 500);
+      ys.push(ys[i - 1] + 300 + rnd() * 500);
+    }
+    for (let i = 0; i < n; i++) {
+      wx.push(30 + Math.round(rnd() * 70));
+      wy.push(30 + Math.round(rnd() * 70));
+    }
+    const X = xs[n - 1], Y = ys[n - 1];
+    const rings: Ring[] = [rect(-wx[0] / 2, -wy[0] / 2, X + wx[n - 1] / 2, Y + wy[n - 1] / 2)];
+    for (let i = 0; i + 1 < n; i++) for (let j = 0; j + 1 < n; j++) rings.push(rect(xs[i] + wx[i] / 2, ys[j] + wy[j] / 2, xs[i + 1] - wx[i + 1] / 2, ys[j + 1] - wy[j + 1] / 2));
+    it(`grid ${trial + 1} (${n} × ${n}): paired walls, the lines' length to 1e-9, as many paths as the Voronoi reader finds`, () => {
+      const paired = extractMedialAxis(rings), voronoi = extractMedialAxis(rings, undefined, { pairedWalls: false });
+      expect(paired.method).toBe("paired walls");
+      const total = paired.paths.reduce((acc, p) => acc + lengthOf(p), 0);
+      expect(rel(total, n * (X + Y))).toBeLessThan(1e-9);
+      expect(paired.paths).toHaveLength(voronoi.paths.length);
+      expect(paired.minWidthUnits).toBeCloseTo(Math.min(...wx, ...wy), 9);
+      expect(rel(voronoi.minWidthUnits, paired.minWidthUnits)).toBeLessThan(0.005);
+    });
+  }
+});
+
 describe("drawings rounded to a grid", () => {
   // The narrow-branch T of above turned by 0.3 rad and π/4 with its coordinates rounded to 1 nm (1e-3 drawing
   // units of 1 µm, a common mask database grid): the walls stay parallel to well within the widths' tolerance.
