@@ -415,13 +415,18 @@ class StretchList {
     // stretch close it (a flat dead end). Beyond the ends, in the joints, walls are the joints' to check.
     const tolT = ON_LINE * r;
     let capped = false;
+    // Walls outside the midline's box grown by the half-width are farther than it from every point between the
+    // ends and from the end lines' spans: skipped without the frame arithmetic (most of them).
+    const bx0m = Math.min(mx0, mx1) - r, bx1m = Math.max(mx0, mx1) + r, by0m = Math.min(my0, my1) - r, by1m = Math.max(my0, my1) + r;
     for (const e of near) {
       if (e === a || e === b) continue;
-      const ex0 = edges[4 * e] - ax, ey0 = edges[4 * e + 1] - ay, ex1 = edges[4 * e + 2] - ax, ey1 = edges[4 * e + 3] - ay;
+      const wx0 = edges[4 * e], wy0 = edges[4 * e + 1], wx1 = edges[4 * e + 2], wy1 = edges[4 * e + 3];
+      if (Math.max(wx0, wx1) < bx0m || Math.min(wx0, wx1) > bx1m || Math.max(wy0, wy1) < by0m || Math.min(wy0, wy1) > by1m) continue;
+      const ex0 = wx0 - ax, ey0 = wy0 - ay, ex1 = wx1 - ax, ey1 = wy1 - ay;
       const ta = ex0 * dx + ey0 * dy, tb = ex1 * dx + ey1 * dy;
       const oa = ex0 * nx + ey0 * ny, ob = ex1 * nx + ey1 * ny;
-      const across = (o: number) => o >= -tolT && o <= d + tolT;
-      if (((Math.abs(ta - lo) <= tolT && Math.abs(tb - lo) <= tolT) || (Math.abs(ta - hi) <= tolT && Math.abs(tb - hi) <= tolT)) && across(oa) && across(ob)) {
+      const across = oa >= -tolT && oa <= d + tolT && ob >= -tolT && ob <= d + tolT;
+      if (across && ((Math.abs(ta - lo) <= tolT && Math.abs(tb - lo) <= tolT) || (Math.abs(ta - hi) <= tolT && Math.abs(tb - hi) <= tolT))) {
         capped = true;
         continue;
       }
