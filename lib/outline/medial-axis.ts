@@ -34,12 +34,28 @@ export const WALL_SPACING_WIDTHS = 2;
 export const WIDTH_TOLERANCE = 0.005;
 
 export interface CentrelinePath {
-  /** Points along the centreline, drawing units. */
-  points: [number, number][];
+  /** Points along the centreline, x y interleaved, drawing units (flat: 20k+ [x, y] pairs were mostly GC). */
+  xy: Float64Array;
   /** Local half-width at each point (distance to the nearest wall), drawing units. */
-  radii: number[];
+  radii: Float64Array;
   /** Smallest bend radius where the reader knows it (null: no bend), drawing units; else found from the points. */
   bendRadius?: number | null;
+}
+
+/** A path as the Voronoi reader builds and extends it, before it is handed out flat. */
+interface TuplePath {
+  points: [number, number][];
+  radii: number[];
+}
+
+/** A tuple path in the flat form of CentrelinePath. */
+function flatPath(p: TuplePath): CentrelinePath {
+  const xy = new Float64Array(2 * p.points.length);
+  p.points.forEach(([x, y], i) => {
+    xy[2 * i] = x;
+    xy[2 * i + 1] = y;
+  });
+  return { xy, radii: Float64Array.from(p.radii) };
 }
 
 export interface MedialAxisResult {
@@ -995,7 +1011,7 @@ function axisFromSamples(
   sk.mergeSplitJunctions(step);
 
   const builder = new PathBuilder(gx, gy, gr, walls, step, projector, sigLo, sigHi, triangles, sk.moved);
-  const paths: CentrelinePath[] = [];
+  const paths: TuplePath[] = [];
   const leafEnds: [boolean, boolean][] = [];
   let minR = Infinity;
   for (const br of sk.branches) {
@@ -1016,7 +1032,7 @@ function axisFromSamples(
   const pruneMin = sk.pruneMin;
   return {
     method: "medial axis",
-    paths,
+    paths: paths.map(flatPath),
     stepUnits: maxSpacing,
     toleranceStepUnits: step,
     pruneLengthUnits: PRUNE_FACTOR * (Number.isFinite(pruneMin) ? pruneMin : minR),
@@ -1113,7 +1129,7 @@ class PathBuilder {
   }
 
   /** The path of a chain of vertices; leafA / leafB: that end is a dead end. */
-  build(v: number[], leafA: boolean, leafB: boolean): CentrelinePath {
+  build(v: number[], leafA: boolean, leafB: boolean): TuplePath {
     const { gx, gy, step, cx, cy, cr, cs } = this;
     cx.length = cy.length = cr.length = cs.length = 0;
     const m = v.length;
@@ -1216,7 +1232,7 @@ class PathBuilder {
 }
 
 /** Dead ends: the axis stops one radius short of a flat or round end wall; extend it there along its last direction. */
-function extendLeaves(paths: CentrelinePath[], leafEnds: [boolean, boolean][], region: () => Region, step: number, maxSpacing: number): void {
+function extendLeaves(paths: TuplePath[], leafEnds: [boolean, boolean][], region: () => Region, step: number, maxSpacing: number): void {
   paths.forEach((p, i) => {
     for (const atEnd of [false, true]) {
       if (!leafEnds[i][atEnd ? 1 : 0] || p.points.length < 2) continue;

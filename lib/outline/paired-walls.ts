@@ -14,8 +14,9 @@
  * geometry on the wall segments in a grid (region.ts WallGrid).
  */
 import { WIDTH_TOLERANCE, type CentrelinePath, type MedialAxisResult } from "./medial-axis";
-import { segDist2, type OrientedRings, type WallGrid } from "./region";
+import { circumradius, segDist2, type OrientedRings, type WallGrid } from "./region";
 import { douglasPeucker } from "./simplify";
+import { grownCopy } from "../typed-arrays";
 
 /** A wall's ray may pair it with another whose direction is this close to opposite (sine of the angle): a coarse filter. */
 const PARALLEL_SIN = 1e-3;
@@ -576,14 +577,20 @@ function tracePaths(st: StretchList, joints: Joints, minR: number): CentrelinePa
   const paths: CentrelinePath[] = [];
   const arms = new ArmCache(joints, st, minR);
   const frame = new Float64Array(4);
-  let points: [number, number][] = [];
-  let radii: number[] = [];
+  // Every path's points in one pair of growing columns; each path is a view of its run (no array per point).
+  let XY = new Float64Array(1024), R = new Float64Array(512);
+  let n = 0, pathStart = 0;
   const push = (x: number, y: number, r: number) => {
-    const last = points[points.length - 1];
-    if (last && last[0] === x && last[1] === y) return;
-    points.push([x, y]);
-    radii.push(r);
+    if (n > pathStart && XY[2 * n - 2] === x && XY[2 * n - 1] === y) return;
+    if (n === R.length) {
+      XY = grownCopy(XY, 4 * n);
+      R = grownCopy(R, 2 * n);
+    }
+    XY[2 * n] = x;
+    XY[2 * n + 1] = y;
+    R[n++] = r;
   };
+  const runs: number[] = [];
   /** From stretch end x's centre into its joint's centre (or the reverse, inward: from the joint's centre). */
   const throughJoint = (x: number, inward: boolean) => {
     const g = joints.of[x];
@@ -606,8 +613,7 @@ function tracePaths(st: StretchList, joints: Joints, minR: number): CentrelinePa
     }
   };
   const walk = (startEnd: number): CentrelinePath => {
-    points = [];
-    radii = [];
+    pathStart = n;
     /** Joint centres of the bends passed, for the bend radius. */
     const bends: number[] = [];
     let rMax = 0;
@@ -634,10 +640,16 @@ function tracePaths(st: StretchList, joints: Joints, minR: number): CentrelinePa
       const R = circumradius(bends[2 * k - 4], bends[2 * k - 3], bends[2 * k - 2], bends[2 * k - 1], bends[2 * k], bends[2 * k + 1]);
       if (R < 1000 * 2 * rMax && (bendRadius === null || R < bendRadius)) bendRadius = R;
     }
-    return { points, radii, bendRadius };
+    runs.push(pathStart, n);
+    return { xy: XY, radii: R, bendRadius };
   };
   for (let x = 0; x < 2 * st.n; x++) if (joints.degree(x) !== 2 && !used[x >> 1]) paths.push(walk(x));
   for (let s = 0; s < st.n; s++) if (!used[s]) paths.push(walk(2 * s));
+  // Views made last: the columns may have been reallocated while they grew.
+  paths.forEach((p, i) => {
+    p.xy = XY.subarray(2 * runs[2 * i], 2 * runs[2 * i + 1]);
+    p.radii = R.subarray(runs[2 * i], runs[2 * i + 1]);
+  });
   return paths;
 }
 
@@ -744,9 +756,3 @@ function profileArm(w: Float64Array, m: number, cx: number, cy: number, r: numbe
   return Float64Array.from(out);
 }
 
-/** Circumradius of three points (plane geometry: R = abc / 4·area); Infinity when collinear. */
-function circumradius(ax: number, ay: number, bx: number, by: number, cx: number, cy: number): number {
-  const ab = Math.sqrt((bx - ax) ** 2 + (by - ay) ** 2), bc = Math.sqrt((cx - bx) ** 2 + (cy - by) ** 2), ca = Math.sqrt((ax - cx) ** 2 + (ay - cy) ** 2);
-  const area2 = Math.abs((bx - ax) * (cy - ay) - (by - ay) * (cx - ax));
-  return area2 === 0 ? Infinity : (ab * bc * ca) / (2 * area2);
-}

@@ -5,7 +5,7 @@
 import type { CircleEntity, LinePiece, PathEntity } from "../dxf/types";
 import { samplePoints, startOf } from "../network/geometry";
 import { extractMedialAxis, type MedialAxisResult } from "./medial-axis";
-import type { Ring } from "./region";
+import { circumradius, type Ring } from "./region";
 import { douglasPeucker } from "./simplify";
 
 /** Sides of the polygon standing in for a circle drawn on a channel layer (common practice: chord sag below 0.1 % of the radius). */
@@ -67,25 +67,24 @@ export function readOutlineLayer(shapes: (PathEntity | CircleEntity)[], stepUnit
   const scratch = { keep: new Uint8Array(64), stack: [] as number[] };
   // Every path's profile is a view into one pair of columns (a small typed array per path was mostly GC).
   let total = 0;
-  for (const path of axis.paths) total += path.points.length;
+  for (const path of axis.paths) total += path.radii.length;
   const allS = new Float64Array(total), allW = new Float64Array(total);
   let at = 0;
   axis.paths.forEach((path, pi) => {
-    const { points, radii } = path;
-    const m = points.length;
+    const { xy, radii } = path;
+    const m = radii.length;
     const ps = allS.subarray(at, at + m), pw = allW.subarray(at, at + m);
     at += m;
     for (let i = 0; i < m; i++) {
-      ps[i] = i === 0 ? 0 : ps[i - 1] + dist(points[i - 1], points[i]);
+      ps[i] = i === 0 ? 0 : ps[i - 1] + Math.sqrt((xy[2 * i] - xy[2 * i - 2]) ** 2 + (xy[2 * i + 1] - xy[2 * i - 1]) ** 2);
       pw[i] = 2 * radii[i];
     }
     profiles.push({ s: ps, w: pw });
-    const bend = path.bendRadius !== undefined ? path.bendRadius : bendRadius(points, radii);
-    shapePoints(points, axis.toleranceStepUnits / 8, keep, scratch);
+    const bend = path.bendRadius !== undefined ? path.bendRadius : bendRadius(xy, radii, ps);
+    shapePoints(xy, m, axis.toleranceStepUnits / 8, keep, scratch);
     for (let q = 0; q + 1 < keep.length; q++) {
       const i = keep[q], j = keep[q + 1];
-      const [x0, y0] = points[i];
-      const [x1, y1] = points[j];
+      const x0 = xy[2 * i], y0 = xy[2 * i + 1], x1 = xy[2 * j], y1 = xy[2 * j + 1];
       if (x0 === x1 && y0 === y1) continue;
       pieces.push({ kind: "line", x0, y0, x1, y1, w0: pw[i], w1: pw[j] });
       curveRadii.push(bend);
@@ -97,20 +96,18 @@ export function readOutlineLayer(shapes: (PathEntity | CircleEntity)[], stepUnit
 }
 
 /**
- * Indices of the points that keep a polyline's shape within tol (Douglas–Peucker, simplify.ts): the width points
- * between them stay in the path's profile.
+ * Indices of the m points (x y interleaved) that keep a polyline's shape within tol (Douglas–Peucker,
+ * simplify.ts): the width points between them stay in the path's profile.
  */
-function shapePoints(points: [number, number][], tol: number, out: number[], scratch: { keep: Uint8Array; stack: number[] }): void {
-  const m = points.length;
+function shapePoints(xy: Float64Array, m: number, tol: number, out: number[], scratch: { keep: Uint8Array; stack: number[] }): void {
   if (scratch.keep.length < m) scratch.keep = new Uint8Array(2 * m);
   const keep = scratch.keep;
   douglasPeucker(m, keep, scratch.stack, (i, j) => {
-    const [ax, ay] = points[i];
-    const [bx, by] = points[j];
+    const ax = xy[2 * i], ay = xy[2 * i + 1], bx = xy[2 * j], by = xy[2 * j + 1];
     const l = Math.sqrt((bx - ax) ** 2 + (by - ay) ** 2);
     let best = -1, worst = tol;
     for (let k = i + 1; k < j; k++) {
-      const [x, y] = points[k];
+      const x = xy[2 * k], y = xy[2 * k + 1];
       const d = l === 0 ? Math.sqrt((x - ax) ** 2 + (y - ay) ** 2) : Math.abs((bx - ax) * (y - ay) - (by - ay) * (x - ax)) / l;
       if (d > worst) {
         worst = d;
@@ -123,31 +120,19 @@ function shapePoints(points: [number, number][], tol: number, out: number[], scr
   for (let k = 0; k < m; k++) if (keep[k]) out.push(k);
 }
 
-const dist = (a: [number, number], b: [number, number]) => Math.sqrt((b[0] - a[0]) ** 2 + (b[1] - a[1]) ** 2);
-
-/** Circumradius of three points (plane geometry: R = abc / 4·area). */
-function circumradius(a: [number, number], b: [number, number], c: [number, number]): number {
-  const ab = dist(a, b);
-  const bc = dist(b, c);
-  const ca = dist(c, a);
-  const area2 = Math.abs((b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0]));
-  return area2 === 0 ? Infinity : (ab * bc * ca) / (2 * area2);
-}
-
 /**
- * Smallest bend radius along a centreline from consecutive point triples, leaving out the first and last
- * two local radii of the path (where it turns into a junction or ends); null when straight (radius above
- * 1000 local widths).
+ * Smallest bend radius along a centreline (x y interleaved, positions s along it) from consecutive point
+ * triples, leaving out the first and last two local radii of the path (where it turns into a junction or ends);
+ * null when straight (radius above 1000 local widths).
  */
-function bendRadius(points: [number, number][], radii: number[]): number | null {
-  const s = [0];
-  for (let i = 1; i < points.length; i++) s.push(s[i - 1] + dist(points[i - 1], points[i]));
-  const total = s.at(-1)!;
+function bendRadius(xy: Float64Array, radii: Float64Array, s: Float64Array): number | null {
+  const m = radii.length;
+  const total = s[m - 1];
   let min = Infinity;
-  for (let i = 1; i + 1 < points.length; i++) {
+  for (let i = 1; i + 1 < m; i++) {
     const margin = 2 * radii[i];
     if (s[i - 1] < margin || total - s[i + 1] < margin) continue;
-    const r = circumradius(points[i - 1], points[i], points[i + 1]);
+    const r = circumradius(xy[2 * i - 2], xy[2 * i - 1], xy[2 * i], xy[2 * i + 1], xy[2 * i + 2], xy[2 * i + 3]);
     if (r < 1000 * 2 * radii[i]) min = Math.min(min, r);
   }
   return Number.isFinite(min) ? min : null;

@@ -272,6 +272,13 @@ export function segDist(px: number, py: number, ax: number, ay: number, bx: numb
   return Math.sqrt(segDist2(px, py, ax, ay, bx, by));
 }
 
+/** Circumradius of three points (plane geometry: R = abc / 4·area); Infinity when collinear. */
+export function circumradius(ax: number, ay: number, bx: number, by: number, cx: number, cy: number): number {
+  const ab = Math.sqrt((bx - ax) ** 2 + (by - ay) ** 2), bc = Math.sqrt((cx - bx) ** 2 + (cy - by) ** 2), ca = Math.sqrt((ax - cx) ** 2 + (ay - cy) ** 2);
+  const area2 = Math.abs((bx - ax) * (cy - ay) - (by - ay) * (cx - ax));
+  return area2 === 0 ? Infinity : (ab * bc * ca) / (2 * area2);
+}
+
 /** Squared distance from a point to a segment (plane geometry). */
 export function segDist2(px: number, py: number, ax: number, ay: number, bx: number, by: number): number {
   const dx = bx - ax;

@@ -14,7 +14,9 @@ import type { CircleEntity, PathEntity } from "@/lib/dxf/types";
 
 const outDir = new URL("../../fixtures/outlines/", import.meta.url);
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
-const lengthOf = (p: CentrelinePath) => p.points.reduce((s, q, i) => (i === 0 ? 0 : s + Math.hypot(q[0] - p.points[i - 1][0], q[1] - p.points[i - 1][1])), 0);
+/** A path's points as [x, y] pairs (CentrelinePath keeps them flat). */
+const pointsOf = (p: CentrelinePath): [number, number][] => Array.from({ length: p.radii.length }, (_, i) => [p.xy[2 * i], p.xy[2 * i + 1]]);
+const lengthOf = (p: CentrelinePath) => pointsOf(p).reduce((s, q, i, pts) => (i === 0 ? 0 : s + Math.hypot(q[0] - pts[i - 1][0], q[1] - pts[i - 1][1])), 0);
 const rect = (x0: number, y0: number, x1: number, y1: number): Ring => [[x0, y0], [x1, y0], [x1, y1], [x0, y1]];
 const near = (a: [number, number], b: [number, number], tol = 1e-6) => Math.hypot(a[0] - b[0], a[1] - b[1]) <= tol;
 
@@ -60,9 +62,9 @@ describe("closed forms read from paired walls", () => {
     expect(axis.paths).toHaveLength(1);
     const p = axis.paths[0];
     expect(rel(lengthOf(p), 2000)).toBeLessThan(1e-9);
-    expect(p.points.some((q) => near(q, [1000, 0]))).toBe(true);
+    expect(pointsOf(p).some((q) => near(q, [1000, 0]))).toBe(true);
     // Half-widths: 25 up to the first arm's end at x = 950, 50 from the second arm's start at y = 25.
-    p.points.forEach((q, i) => {
+    pointsOf(p).forEach((q, i) => {
       if (q[1] === 0 && q[0] <= 950) expect(p.radii[i]).toBeCloseTo(25, 9);
       if (q[0] === 1000 && q[1] >= 25) expect(p.radii[i]).toBeCloseTo(50, 9);
     });
@@ -78,7 +80,7 @@ describe("closed forms read from paired walls", () => {
     expect(axis.method).toBe("paired walls");
     expect(axis.paths).toHaveLength(3);
     for (const p of axis.paths) {
-      expect(near(p.points[0], [1000, 0]) || near(p.points.at(-1)!, [1000, 0])).toBe(true);
+      expect(near(pointsOf(p)[0], [1000, 0]) || near(pointsOf(p).at(-1)!, [1000, 0])).toBe(true);
       expect(rel(lengthOf(p), 1000)).toBeLessThan(1e-9);
     }
     const radii = axis.paths.map((p) => Math.min(...p.radii)).sort((a, b) => a - b);
@@ -103,7 +105,7 @@ describe("closed forms read from paired walls", () => {
     expect(axis.method).toBe("paired walls");
     expect(axis.paths).toHaveLength(1);
     const p = axis.paths[0];
-    expect(near(p.points[0], p.points.at(-1)!)).toBe(true);
+    expect(near(pointsOf(p)[0], pointsOf(p).at(-1)!)).toBe(true);
     expect(rel(lengthOf(p), 4000)).toBeLessThan(1e-9);
     expect(axis.regions).toBe(1);
     expect(axis.holes).toBe(1);
