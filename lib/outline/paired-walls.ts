@@ -161,7 +161,7 @@ export function readPairedWalls(prep: OrientedRings, edges: Float64Array, ringEd
       if (!(Math.sqrt((st.cx1[s] - st.cx0[s]) ** 2 + (st.cy1[s] - st.cy0[s]) ** 2) > 2 * st.r[s])) return null;
       // A dead end: on along the centreline to the end wall (flat: already there; round: one half-width on).
       st.endFrameInto(x, frame);
-      const [cx, cy, dx, dy] = frame;
+      const cx = frame[0], cy = frame[1], dx = frame[2], dy = frame[3];
       const t = joints.rayToWalls(g, cx, cy, dx, dy, tol);
       if (t === null) return null;
       px = cx + dx * t;
@@ -195,7 +195,7 @@ export function readPairedWalls(prep: OrientedRings, edges: Float64Array, ringEd
   // or past a post, with channels on either side) is not a channel of its own.
   for (let s = 0; s < nS; s++) {
     if (Math.sqrt((st.cx1[s] - st.cx0[s]) ** 2 + (st.cy1[s] - st.cy0[s]) ** 2) > 2 * st.r[s]) continue;
-    for (const x of [2 * s, 2 * s + 1]) {
+    for (let x = 2 * s; x <= 2 * s + 1; x++) {
       if (joints.degree(x) !== 2) return null;
       const other = st.r[joints.other(x) >> 1];
       if (Math.abs(other - st.r[s]) > PARALLEL_TOLERANCE * st.r[s]) return null;
@@ -324,7 +324,7 @@ class Joints {
       const x = this.ends[k];
       const s = x >> 1, r = st.r[s];
       st.endFrameInto(x, frame);
-      const [cx, cy, dx, dy] = frame;
+      const cx = frame[0], cy = frame[1], dx = frame[2], dy = frame[3];
       const back = Math.min(JOINT_REACH * r, Math.sqrt((st.cx1[s] - st.cx0[s]) ** 2 + (st.cy1[s] - st.cy0[s]) ** 2));
       put(cx + dy * r, cy - dx * r, cx + dy * r - dx * back, cy - dx * r - dy * back);
       put(cx - dy * r, cy + dx * r, cx - dy * r - dx * back, cy + dx * r - dy * back);
@@ -350,9 +350,10 @@ const fmt = (x: number) => String(Number(x.toPrecision(6)));
 function firstHit(grid: WallGrid, edges: Float64Array, self: number, px: number, py: number, nx: number, ny: number, extent: number, near: number[]): number {
   for (let reach = grid.cellSize; ; reach *= 2) {
     const qx = px + nx * reach, qy = py + ny * reach;
-    grid.collect(Math.min(px, qx), Math.min(py, qy), Math.max(px, qx), Math.max(py, qy), near);
+    const count = grid.collect(Math.min(px, qx), Math.min(py, qy), Math.max(px, qx), Math.max(py, qy), near);
     let best = -1, bestT = Infinity;
-    for (const e of near) {
+    for (let k = 0; k < count; k++) {
+      const e = near[k];
       if (e === self) continue;
       const ax = edges[4 * e], ay = edges[4 * e + 1];
       const vx = edges[4 * e + 2] - ax, vy = edges[4 * e + 3] - ay;
@@ -401,8 +402,8 @@ class StretchList {
     const t0 = (bx0 - ax) * dx + (by0 - ay) * dy, t1 = (bx1 - ax) * dx + (by1 - ay) * dy;
     const lo = Math.max(0, Math.min(t0, t1)), hi = Math.min(len[a], Math.max(t0, t1));
     // B's distance from A at the overlap's two ends: parallel within PARALLEL_TOLERANCE, its mean the width.
-    const at = (t: number) => (t1 === t0 ? d0 : d0 + ((d1 - d0) * (t - t0)) / (t1 - t0));
-    const dLo = at(lo), dHi = at(hi);
+    const slope = t1 === t0 ? 0 : (d1 - d0) / (t1 - t0);
+    const dLo = d0 + slope * (lo - t0), dHi = d0 + slope * (hi - t0);
     const d = (dLo + dHi) / 2;
     if (!(d > 0) || Math.abs(dHi - dLo) > PARALLEL_TOLERANCE * d) return;
     if (!(hi - lo > 1e-9 * d)) return;
@@ -410,7 +411,7 @@ class StretchList {
     const mx0 = ax + dx * lo + nx * r, my0 = ay + dy * lo + ny * r;
     const mx1 = ax + dx * hi + nx * r, my1 = ay + dy * hi + ny * r;
     const clear = r * (1 - CLEARANCE_SLACK);
-    grid.collect(Math.min(mx0, mx1) - r, Math.min(my0, my1) - r, Math.max(mx0, mx1) + r, Math.max(my0, my1) + r, near);
+    const count = grid.collect(Math.min(mx0, mx1) - r, Math.min(my0, my1) - r, Math.max(mx0, mx1) + r, Math.max(my0, my1) + r, near);
     // In the stretch's frame (t along a from its start, o across towards b): no other wall may come within the
     // clearance of the midline o = r between the two ends (lo < t < hi); walls lying on an end line across the
     // stretch close it (a flat dead end). Beyond the ends, in the joints, walls are the joints' to check.
@@ -419,7 +420,8 @@ class StretchList {
     // Walls outside the midline's box grown by the half-width are farther than it from every point between the
     // ends and from the end lines' spans: skipped without the frame arithmetic (most of them).
     const bx0m = Math.min(mx0, mx1) - r, bx1m = Math.max(mx0, mx1) + r, by0m = Math.min(my0, my1) - r, by1m = Math.max(my0, my1) + r;
-    for (const e of near) {
+    for (let k = 0; k < count; k++) {
+      const e = near[k];
       if (e === a || e === b) continue;
       const wx0 = edges[4 * e], wy0 = edges[4 * e + 1], wx1 = edges[4 * e + 2], wy1 = edges[4 * e + 3];
       if (Math.max(wx0, wx1) < bx0m || Math.min(wx0, wx1) > bx1m || Math.max(wy0, wy1) < by0m || Math.min(wy0, wy1) > by1m) continue;
@@ -456,8 +458,8 @@ class StretchList {
     this.dx.push(dx);
     this.dy.push(dy);
     // On b (running the other way) the stretch's start is at the larger parameter.
-    const sb = (x: number, y: number) => (x - bx0) * ux[b] + (y - by0) * uy[b];
-    const bLo = Math.max(0, sb(ax + dx * hi, ay + dy * hi)), bHi = Math.min(len[b], sb(ax + dx * lo, ay + dy * lo));
+    const bLo = Math.max(0, (ax + dx * hi - bx0) * ux[b] + (ay + dy * hi - by0) * uy[b]);
+    const bHi = Math.min(len[b], (ax + dx * lo - bx0) * ux[b] + (ay + dy * lo - by0) * uy[b]);
     this.ivEdge.push(a, b);
     this.ivLo.push(lo, bLo);
     this.ivHi.push(hi, bHi);
@@ -529,7 +531,7 @@ function meetingPoint(st: StretchList, ends: Int32Array, tol: number, out: Float
   let sxx = 0, sxy = 0, syy = 0, bx = 0, by = 0;
   for (const x of ends) {
     st.endFrameInto(x, out);
-    const [cx, cy, dx, dy] = out;
+    const cx = out[0], cy = out[1], dx = out[2], dy = out[3];
     // (I − d dᵀ) p = (I − d dᵀ) c, summed over the ends.
     const m00 = 1 - dx * dx, m01 = -dx * dy, m11 = 1 - dy * dy;
     sxx += m00;
@@ -557,7 +559,7 @@ function meetingPoint(st: StretchList, ends: Int32Array, tol: number, out: Float
   }
   for (const x of ends) {
     st.endFrameInto(x, out);
-    const [cx, cy, dx, dy] = out;
+    const cx = out[0], cy = out[1], dx = out[2], dy = out[3];
     const off = Math.abs((px - cx) * dy - (py - cy) * dx);
     const ahead = (px - cx) * dx + (py - cy) * dy;
     if (off > tol || ahead < -tol) return false;

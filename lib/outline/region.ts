@@ -25,8 +25,9 @@ export function signedArea(ring: Ring): number {
 function inRing(ring: Ring, x: number, y: number): boolean {
   let inside = false;
   for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) {
-    const [xi, yi] = ring[i];
-    const [xj, yj] = ring[j];
+    // Indexed, not destructured: destructuring runs the iterator protocol in this hot loop.
+    const xi = ring[i][0], yi = ring[i][1];
+    const xj = ring[j][0], yj = ring[j][1];
     if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
   }
   return inside;
@@ -34,7 +35,8 @@ function inRing(ring: Ring, x: number, y: number): boolean {
 
 function bboxOfRing(r: Ring): [number, number, number, number] {
   let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
-  for (const [x, y] of r) {
+  for (let k = 0; k < r.length; k++) {
+    const x = r[k][0], y = r[k][1];
     if (x < x0) x0 = x;
     if (y < y0) y0 = y;
     if (x > x1) x1 = x;
@@ -61,8 +63,8 @@ export function cleanRings(rings: Ring[]): Ring[] {
 
 /** Three spread vertices of ring r lie inside ring o. */
 function spreadInside(r: Ring, o: Ring): boolean {
-  for (const k of [0, Math.floor(r.length / 3), Math.floor((2 * r.length) / 3)]) if (!inRing(o, r[k][0], r[k][1])) return false;
-  return true;
+  const a = Math.floor(r.length / 3), b = Math.floor((2 * r.length) / 3);
+  return inRing(o, r[0][0], r[0][1]) && inRing(o, r[a][0], r[a][1]) && inRing(o, r[b][0], r[b][1]);
 }
 
 /**
@@ -371,11 +373,13 @@ export class WallGrid {
   }
 
   /**
-   * Ids of the segments listed in the cells the box touches, each once, into `out` (cleared first): the caller
-   * tests them exactly.
+   * Ids of the segments listed in the cells the box touches, each once, into out[0 .. the count returned): the
+   * caller tests them exactly.
    */
-  collect(minX: number, minY: number, maxX: number, maxY: number, out: number[]): void {
-    out.length = 0;
+  collect(minX: number, minY: number, maxX: number, maxY: number, out: number[]): number {
+    // The count is returned and out is never shortened: truncating an array lets V8 drop its storage, and a
+    // query per wall would then grow it again each time.
+    let n = 0;
     const seen = (this.seen ??= new Int32Array(this.segs.length / 4));
     const mark = ++this.mark;
     const i0 = this.ix(minX), i1 = this.ix(maxX), j0 = this.iy(minY), j1 = this.iy(maxY);
@@ -386,10 +390,11 @@ export class WallGrid {
           const e = this.list[k];
           if (seen[e] === mark) continue;
           seen[e] = mark;
-          out.push(e);
+          out[n++] = e;
         }
       }
     }
+    return n;
   }
 
   /** Distance from (x, y) to the nearest wall segment within maxR (drawing units); Infinity if none that near. */
