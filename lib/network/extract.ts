@@ -929,6 +929,9 @@ function endAt(ends: [number, number][], node: number, x: number, y: number): [n
 /** A piece's width points (fractions along it and widths, metres), reused for every piece of every segment. */
 const profF: number[] = [];
 const profW: number[] = [];
+/** The segment's width profile while it is built (positions and widths, SI), made into WidthSample objects once at the end. */
+const segS: number[] = [];
+const segW: number[] = [];
 
 /** Steps for drawing an arc: every ≤ 5°, at least two. */
 const arcSteps = (sweep: number) => Math.max(2, Math.ceil(Math.abs(sweep) / (Math.PI / 36)));
@@ -959,7 +962,8 @@ function makeSegment(
   }
   const path = new Array<[number, number]>(nPath);
   let np = 0;
-  let profile: WidthSample[] | null = null;
+  // Profile points so far in segS/segW (−1: widths constant so far, no profile yet).
+  let nProf = -1;
   let s = 0;
   let minR: number | null = null;
   let area = 0;
@@ -1004,18 +1008,32 @@ function makeSegment(
     const pid = pieces.profileOf(i);
     let m = 0;
     if (pid >= 0) {
-      profF.length = profW.length = 0;
       m = pieces.profiles.pointsBetween(pid, fwd ? pieces.ps0[i] : pieces.ps1[i], fwd ? pieces.ps1[i] : pieces.ps0[i], profF, profW);
     }
     for (let q = 0; q <= m; q++) {
       const wa = q === 0 ? w0 : profW[q - 1] * mpu, wb = q === m ? w1 : profW[q] * mpu;
       const sa = q === 0 ? s : s + len * profF[q - 1], sb = q === m ? s + len : s + len * profF[q];
       // A width profile only when widths vary along the segment.
-      if (profile === null && (wa !== first || wb !== first)) profile = sa === 0 ? [] : [{ sM: 0, widthM: first }, { sM: sa * mpu, widthM: first }];
-      if (profile !== null) {
-        const last = profile.at(-1);
-        if (!last || last.sM !== sa * mpu || last.widthM !== wa) profile.push({ sM: sa * mpu, widthM: wa });
-        profile.push({ sM: sb * mpu, widthM: wb });
+      if (nProf < 0 && (wa !== first || wb !== first)) {
+        nProf = 0;
+        if (sa !== 0) {
+          segS[0] = 0;
+          segW[0] = first;
+          segS[1] = sa * mpu;
+          segW[1] = first;
+          nProf = 2;
+        }
+      }
+      if (nProf >= 0) {
+        // Repeated points are left out here, so the profile needs no second pass.
+        if (nProf === 0 || segS[nProf - 1] !== sa * mpu || segW[nProf - 1] !== wa) {
+          segS[nProf] = sa * mpu;
+          segW[nProf++] = wa;
+        }
+        if (segS[nProf - 1] !== sb * mpu || segW[nProf - 1] !== wb) {
+          segS[nProf] = sb * mpu;
+          segW[nProf++] = wb;
+        }
       }
       // (len itself for a plain piece: s + len − s may differ from it in the last bit.)
       area += ((wa + wb) / 2) * (m === 0 ? len : sb - sa);
@@ -1029,7 +1047,8 @@ function makeSegment(
   }
   const lengthM = s * mpu;
   // A single linear taper is described by its end widths; anything else carries its profile (and the mean width).
-  const linear = profile === null || profile.every((q) => Math.abs(first + ((lastW - first) * q.sM) / (lengthM || 1) - q.widthM) <= 1e-9 * maxW);
+  let linear = true;
+  for (let k = 0; k < nProf && linear; k++) linear = Math.abs(first + ((lastW - first) * segS[k]) / (lengthM || 1) - segW[k]) <= 1e-9 * maxW;
   const seg: NetworkSegment = {
     id,
     layer: layer.name,
@@ -1047,16 +1066,10 @@ function makeSegment(
     seg.minWidthM = minW;
     seg.maxWidthM = maxW;
   }
-  if (!linear && profile !== null) seg.widthProfile = dedupeProfile(profile);
-  return seg;
-}
-
-function dedupeProfile(profile: WidthSample[]): WidthSample[] {
-  const out: WidthSample[] = [];
-  for (const q of profile) {
-    const last = out.at(-1);
-    if (last && last.sM === q.sM && last.widthM === q.widthM) continue;
-    out.push(q);
+  if (!linear) {
+    const profile = new Array<WidthSample>(nProf);
+    for (let k = 0; k < nProf; k++) profile[k] = { sM: segS[k], widthM: segW[k] };
+    seg.widthProfile = profile;
   }
-  return out;
+  return seg;
 }

@@ -61,7 +61,8 @@ export class WidthProfiles {
 
   /**
    * The profile's own points strictly between positions a and b (either order), in the order a → b, as fractions
-   * of the way from a to b and widths, appended to f and w; returns how many.
+   * of the way from a to b and widths, written to f[0 ..] and w[0 ..] (scratch arrays the caller keeps: never
+   * shortened, so they keep their storage); returns how many.
    */
   pointsBetween(id: number, a: number, b: number, f: number[], w: number[]): number {
     const s = this.S, ws = this.W;
@@ -75,8 +76,8 @@ export class WidthProfiles {
     const n = last - first;
     for (let q = 0; q < n; q++) {
       const k = a <= b ? first + q : last - 1 - q;
-      f.push((s[k] - a) / span);
-      w.push(ws[k]);
+      f[q] = (s[k] - a) / span;
+      w[q] = ws[k];
     }
     return n;
   }

@@ -81,8 +81,8 @@ export function readOutlineLayer(shapes: (PathEntity | CircleEntity)[], stepUnit
     }
     profiles.push({ s: ps, w: pw });
     const bend = path.bendRadius !== undefined ? path.bendRadius : bendRadius(xy, radii, ps);
-    shapePoints(xy, m, axis.toleranceStepUnits / 8, keep, scratch);
-    for (let q = 0; q + 1 < keep.length; q++) {
+    const nKeep = shapePoints(xy, m, axis.toleranceStepUnits / 8, keep, scratch);
+    for (let q = 0; q + 1 < nKeep; q++) {
       const i = keep[q], j = keep[q + 1];
       const x0 = xy[2 * i], y0 = xy[2 * i + 1], x1 = xy[2 * j], y1 = xy[2 * j + 1];
       if (x0 === x1 && y0 === y1) continue;
@@ -97,9 +97,9 @@ export function readOutlineLayer(shapes: (PathEntity | CircleEntity)[], stepUnit
 
 /**
  * Indices of the m points (x y interleaved) that keep a polyline's shape within tol (Douglas–Peucker,
- * simplify.ts): the width points between them stay in the path's profile.
+ * simplify.ts), into out[0 .. the count returned): the width points between them stay in the path's profile.
  */
-function shapePoints(xy: Float64Array, m: number, tol: number, out: number[], scratch: { keep: Uint8Array; stack: number[] }): void {
+function shapePoints(xy: Float64Array, m: number, tol: number, out: number[], scratch: { keep: Uint8Array; stack: number[] }): number {
   if (scratch.keep.length < m) scratch.keep = new Uint8Array(2 * m);
   const keep = scratch.keep;
   douglasPeucker(m, keep, scratch.stack, (i, j) => {
@@ -116,8 +116,10 @@ function shapePoints(xy: Float64Array, m: number, tol: number, out: number[], sc
     }
     return best;
   });
-  out.length = 0;
-  for (let k = 0; k < m; k++) if (keep[k]) out.push(k);
+  // Written from the start of out, which is never shortened (it keeps its storage from path to path).
+  let n = 0;
+  for (let k = 0; k < m; k++) if (keep[k]) out[n++] = k;
+  return n;
 }
 
 /**
