@@ -47,6 +47,10 @@ function bboxOfRing(r: Ring): [number, number, number, number] {
 
 /** Drop repeated closing points and zero-length edges. */
 function cleanRing(r: Ring): Ring {
+  // Most rings have nothing to drop: those are kept as they are (rings are never changed in place).
+  let clean = r.length > 0 && (r[0][0] !== r[r.length - 1][0] || r[0][1] !== r[r.length - 1][1]);
+  for (let i = 1; i < r.length && clean; i++) clean = r[i][0] !== r[i - 1][0] || r[i][1] !== r[i - 1][1];
+  if (clean) return r;
   const out: Ring = [];
   for (const p of r) {
     const last = out.at(-1);
