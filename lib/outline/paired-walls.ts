@@ -3,9 +3,10 @@
  * read without sampling: each wall is paired with the antiparallel wall it
  * faces, the stretch between them is a straight channel of constant width
  * whose centreline is the midline, and the stretches' ends are joined where
- * their centrelines meet. A mask of straight channels, mitred bends, T and
- * cross junctions and flat or round dead ends (most photomasks) is read
- * exactly this way in a few operations per wall.
+ * their centrelines meet. A mask of straight channels, mitred bends, bends
+ * drawn as arcs (their chords pair up), T and cross junctions and flat or
+ * round dead ends (most photomasks) is read this way in a few operations per
+ * wall.
  *
  * Every step checks what it assumes, and any region the pairing does not
  * explain in full (a chamber, a taper, a post in a channel, a jog, shapes
@@ -473,16 +474,7 @@ class StretchList {
     return 2 * (iv >> 1) + (iv & 1 ? 1 : 0);
   }
 
-  /** The wall point at an interval's high (or low) end, x y. */
-  point(edges: Float64Array, iv: number, high: boolean): [number, number] {
-    const e = this.ivEdge[iv];
-    const t = high ? this.ivHi[iv] : this.ivLo[iv];
-    const x0 = edges[4 * e], y0 = edges[4 * e + 1], x1 = edges[4 * e + 2], y1 = edges[4 * e + 3];
-    const l = Math.sqrt((x1 - x0) ** 2 + (y1 - y0) ** 2);
-    return [x0 + ((x1 - x0) * t) / l, y0 + ((y1 - y0) * t) / l];
-  }
-
-  /** endFrame into a scratch array (no allocation). */
+  /** Centre of stretch end x and the direction out of the stretch there (cx, cy, dx, dy) into out. */
   endFrameInto(x: number, out: Float64Array): void {
     const s = x >> 1;
     const one = x & 1;
@@ -490,12 +482,6 @@ class StretchList {
     out[1] = one ? this.cy1[s] : this.cy0[s];
     out[2] = one ? this.dx[s] : -this.dx[s];
     out[3] = one ? this.dy[s] : -this.dy[s];
-  }
-
-  /** Centre of stretch end x and the direction out of the stretch there: cx, cy, dx, dy. */
-  endFrame(x: number): [number, number, number, number] {
-    const s = x >> 1;
-    return x & 1 ? [this.cx1[s], this.cy1[s], this.dx[s], this.dy[s]] : [this.cx0[s], this.cy0[s], -this.dx[s], -this.dy[s]];
   }
 }
 
