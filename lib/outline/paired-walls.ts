@@ -14,7 +14,7 @@
  * axis (medial-axis.ts). Own code: no package we use pairs walls; it is plane
  * geometry on the wall segments in a grid (region.ts WallGrid).
  */
-import { WIDTH_TOLERANCE, type CentrelinePath, type MedialAxisResult } from "./medial-axis";
+import { PRUNE_FACTOR, WIDTH_TOLERANCE, type CentrelinePath, type MedialAxisResult } from "./medial-axis";
 import { circumradius, segDist2, type OrientedRings, type WallGrid } from "./region";
 import { douglasPeucker } from "./simplify";
 import { grownCopy } from "../typed-arrays";
@@ -189,6 +189,18 @@ export function readPairedWalls(prep: OrientedRings, edges: Float64Array, ringEd
     }
     joints.x[g] = px;
     joints.y[g] = py;
+  }
+
+  // A dead end straight off a junction must outreach what the Voronoi reader prunes as a corner spur
+  // (PRUNE_FACTOR junction radii, here the junction's widest half-width, plus its own): shorter, it is the side of
+  // a chamber the junction sits in (a chamber fed through its long sides reads as a cross of squat arms otherwise).
+  for (let x = 0; x < 2 * nS; x++) {
+    if (joints.degree(x) !== 1 || joints.degree(x ^ 1) < 3) continue;
+    const g = joints.of[x ^ 1], leaf = joints.of[x];
+    let rJ = 0;
+    for (let k = joints.start[g]; k < joints.start[g + 1]; k++) rJ = Math.max(rJ, st.r[joints.ends[k] >> 1]);
+    const reach = Math.sqrt((joints.x[leaf] - joints.x[g]) ** 2 + (joints.y[leaf] - joints.y[g]) ** 2);
+    if (!(reach > PRUNE_FACTOR * rJ + st.r[x >> 1])) return null;
   }
 
   // A stretch no longer than wide is a piece of a curved channel (a tessellated arc's chord): each of its ends

@@ -196,6 +196,7 @@ describe("shapes left to the Voronoi reader", () => {
     ["a round chamber fed by three radial channels (their centrelines meet, but far beyond the channels' reach)", [chamberWithArms(500, 50, 1000, [Math.PI / 2, (7 * Math.PI) / 6, (11 * Math.PI) / 6])]],
     ["a square chamber (no direction is the channel's)", [rect(0, 0, 1000, 1000)]],
     ["a rectangular chamber fed by a channel at each end", [[[0, -25], [1000, -25], [1000, -250], [2000, -250], [2000, -25], [3000, -25], [3000, 25], [2000, 25], [2000, 250], [1000, 250], [1000, 25], [0, 25]]]],
+    ["a chamber 1200 × 500 fed through its long sides (its halves would read as squat dead-end arms)", [[[0, 0], [550, 0], [550, -1000], [650, -1000], [650, 0], [1200, 0], [1200, 500], [650, 500], [650, 1500], [550, 1500], [550, 500], [0, 500]]]],
     ["a tapered channel (its walls not parallel)", [[[0, -50], [5000, -25], [5000, 25], [0, 50]]]],
     ["a post in a channel", [rect(0, -100, 2000, 100), rect(900, -20, 1100, 20)]],
     ["a jog: a cross whose arms do not line up", [[[0, -25], [975, -25], [975, -1000], [1025, -1000], [1025, -25], [2000, -25], [2000, 25], [1075, 25], [1075, 1000], [1025, 1000], [1025, 25], [0, 25]]]],
