@@ -603,7 +603,8 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     const lines = linesByLayer.get(l.name) ?? 0;
     l.style = shapes > 0 && lines > 0 ? "mixed" : shapes > 0 ? "outline" : "centreline";
     if (shapes > 0) {
-      // Mask outlines (issue 9): the filled area's medial axis becomes centreline pieces carrying their local widths.
+      // Mask outlines (issue 9): the filled area's centrelines (from facing wall pairs, else its medial axis) become
+      // centreline pieces carrying their local widths.
       const layer = plan.byName.get(l.name)!;
       const list = shapesByLayer.get(l.name)!;
       const src = drawing.entities.indexOf(list[0]);

@@ -84,7 +84,8 @@ export interface MedialAxisResult {
 }
 
 /**
- * Find the centrelines of the area filled by `rings`.
+ * Find the centrelines of the area filled by `rings`: read from facing wall pairs where every wall has one
+ * (paired-walls.ts, exact), else the Voronoi medial axis of wall samples.
  * @param rings closed rings in drawing units (outer boundaries and holes, any orientation).
  * @param stepUnits boundary sampling step; when omitted it derives from the smallest feature (two passes).
  * @param options pairedWalls: false to skip the paired-wall reading and always sample (for comparisons).

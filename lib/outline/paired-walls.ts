@@ -156,10 +156,6 @@ export function readPairedWalls(prep: OrientedRings, edges: Float64Array, ringEd
     if (k1 - k0 === 1) {
       const x = joints.ends[k0];
       if (!selfJoined[x]) return null;
-      // A dead end closes a channel, which is longer than wide; a stretch no longer than wide ending in walls is
-      // part of something else (the short sides of a taper facing each other, a chamber).
-      const s = x >> 1;
-      if (!(Math.sqrt((st.cx1[s] - st.cx0[s]) ** 2 + (st.cy1[s] - st.cy0[s]) ** 2) > 2 * st.r[s])) return null;
       // A dead end: on along the centreline to the end wall (flat: already there; round: one half-width on).
       st.endFrameInto(x, frame);
       const cx = frame[0], cy = frame[1], dx = frame[2], dy = frame[3];
@@ -167,7 +163,8 @@ export function readPairedWalls(prep: OrientedRings, edges: Float64Array, ringEd
       if (t === null) return null;
       px = cx + dx * t;
       py = cy + dy * t;
-      reach = JOINT_REACH * st.r[x >> 1];
+      joints.rMax[g] = st.r[x >> 1];
+      reach = JOINT_REACH * joints.rMax[g];
       if (!joints.withinReach(g, cx, cy, reach)) return null;
       deadEnds++;
     } else {
@@ -179,6 +176,7 @@ export function readPairedWalls(prep: OrientedRings, edges: Float64Array, ringEd
       if (!meetingPoint(st, joints.ends.subarray(k0, k1), tol, frame)) return null;
       px = frame[0];
       py = frame[1];
+      joints.rMax[g] = rMax;
       reach = JOINT_REACH * rMax;
       for (let k = k0; k < k1; k++) {
         st.endFrameInto(joints.ends[k], frame);
@@ -197,17 +195,16 @@ export function readPairedWalls(prep: OrientedRings, edges: Float64Array, ringEd
   for (let x = 0; x < 2 * nS; x++) {
     if (joints.degree(x) !== 1 || joints.degree(x ^ 1) < 3) continue;
     const g = joints.of[x ^ 1], leaf = joints.of[x];
-    let rJ = 0;
-    for (let k = joints.start[g]; k < joints.start[g + 1]; k++) rJ = Math.max(rJ, st.r[joints.ends[k] >> 1]);
     const reach = Math.sqrt((joints.x[leaf] - joints.x[g]) ** 2 + (joints.y[leaf] - joints.y[g]) ** 2);
-    if (!(reach > PRUNE_FACTOR * rJ + st.r[x >> 1])) return null;
+    if (!(reach > PRUNE_FACTOR * joints.rMax[g] + st.r[x >> 1])) return null;
   }
 
   // A stretch no longer than wide is a piece of a curved channel (a tessellated arc's chord): each of its ends
   // must be a bend on to a stretch of its own width. Anything else so squat (two walls facing across a chamber,
-  // or past a post, with channels on either side) is not a channel of its own.
+  // or past a post, with channels on either side; a taper's short sides facing each other, both dead ends) is
+  // not a channel of its own.
   for (let s = 0; s < nS; s++) {
-    if (Math.sqrt((st.cx1[s] - st.cx0[s]) ** 2 + (st.cy1[s] - st.cy0[s]) ** 2) > 2 * st.r[s]) continue;
+    if (st.length(s) > 2 * st.r[s]) continue;
     for (let x = 2 * s; x <= 2 * s + 1; x++) {
       if (joints.degree(x) !== 2) return null;
       const other = st.r[joints.other(x) >> 1];
@@ -236,7 +233,8 @@ export function readPairedWalls(prep: OrientedRings, edges: Float64Array, ringEd
 
 /**
  * Stretch ends grouped into joints (junctions, bends, dead ends), with the wall gaps between them: ends of
- * joint g are ends[start[g] .. start[g + 1]), its gaps gaps[gapFrom[g] .. gapFrom[g + 1]); x, y its centre.
+ * joint g are ends[start[g] .. start[g + 1]), its gaps gaps[gapFrom[g] .. gapFrom[g + 1]); x, y its centre
+ * and rMax its widest half-width, once the joints are checked.
  */
 class Joints {
   readonly n: number;
@@ -247,6 +245,8 @@ class Joints {
   readonly gaps: Int32Array;
   readonly x: Float64Array;
   readonly y: Float64Array;
+  /** Widest half-width among the stretches ending at each joint. */
+  readonly rMax: Float64Array;
 
   constructor(nS: number, find: (x: number) => number, gapEnd: number[], readonly gapStart: number[], readonly gapPts: number[]) {
     const nX = 2 * nS;
@@ -265,6 +265,7 @@ class Joints {
     [this.gapFrom, this.gaps] = bucket(gapGroup, n);
     this.x = new Float64Array(n);
     this.y = new Float64Array(n);
+    this.rMax = new Float64Array(n);
   }
 
   degree(x: number): number {
@@ -296,14 +297,8 @@ class Joints {
     for (let q = this.gapFrom[g]; q < this.gapFrom[g + 1]; q++) {
       const gp = this.gaps[q];
       for (let k = gapStart[gp]; k + 3 < gapStart[gp + 1]; k += 2) {
-        const ax = gapPts[k], ay = gapPts[k + 1];
-        const vx = gapPts[k + 2] - ax, vy = gapPts[k + 3] - ay;
-        const den = dx * vy - dy * vx;
-        if (den === 0) continue;
-        const wx = ax - cx, wy = ay - cy;
-        const t = (wx * vy - wy * vx) / den;
-        const s = (wx * dy - wy * dx) / den;
-        if (s >= -1e-9 && s <= 1 + 1e-9 && t >= -tol && (best === null || t < best)) best = Math.max(0, t);
+        const t = rayHit(cx, cy, dx, dy, gapPts[k], gapPts[k + 1], gapPts[k + 2], gapPts[k + 3], 1e-9);
+        if (t >= -tol && (best === null || t < best)) best = Math.max(0, t);
       }
     }
     return best;
@@ -319,11 +314,7 @@ class Joints {
     const px = this.x[g], py = this.y[g];
     let m = 0;
     const put = (x0: number, y0: number, x1: number, y1: number) => {
-      if (m + 4 > out.buf.length) {
-        const b = new Float64Array(2 * out.buf.length + 16);
-        b.set(out.buf);
-        out.buf = b;
-      }
+      if (m + 4 > out.buf.length) out.buf = grownCopy(out.buf, 2 * out.buf.length + 16);
       out.buf[m++] = x0 - px;
       out.buf[m++] = y0 - py;
       out.buf[m++] = x1 - px;
@@ -338,12 +329,25 @@ class Joints {
       const s = x >> 1, r = st.r[s];
       st.endFrameInto(x, frame);
       const cx = frame[0], cy = frame[1], dx = frame[2], dy = frame[3];
-      const back = Math.min(JOINT_REACH * r, Math.sqrt((st.cx1[s] - st.cx0[s]) ** 2 + (st.cy1[s] - st.cy0[s]) ** 2));
+      const back = Math.min(JOINT_REACH * r, st.length(s));
       put(cx + dy * r, cy - dx * r, cx + dy * r - dx * back, cy - dx * r - dy * back);
       put(cx - dy * r, cy + dx * r, cx - dy * r - dx * back, cy + dx * r - dy * back);
     }
     return m;
   }
+}
+
+/**
+ * Where the ray (px, py) + t·(dx, dy) crosses segment AB: t, or NaN where it misses (parallel, or past an end by
+ * more than slack of the segment's length).
+ */
+function rayHit(px: number, py: number, dx: number, dy: number, ax: number, ay: number, bx: number, by: number, slack: number): number {
+  const vx = bx - ax, vy = by - ay;
+  const den = dx * vy - dy * vx;
+  if (den === 0) return NaN;
+  const wx = ax - px, wy = ay - py;
+  const s = (wx * dy - wy * dx) / den;
+  return s >= -slack && s <= 1 + slack ? (wx * vy - wy * vx) / den : NaN;
 }
 
 /** Items grouped by key (counting sort): items of key g are items[start[g] .. start[g + 1]). */
@@ -368,14 +372,8 @@ function firstHit(grid: WallGrid, edges: Float64Array, self: number, px: number,
     for (let k = 0; k < count; k++) {
       const e = near[k];
       if (e === self) continue;
-      const ax = edges[4 * e], ay = edges[4 * e + 1];
-      const vx = edges[4 * e + 2] - ax, vy = edges[4 * e + 3] - ay;
-      const den = nx * vy - ny * vx;
-      if (den === 0) continue;
-      const wx = ax - px, wy = ay - py;
-      const t = (wx * vy - wy * vx) / den;
-      const s = (wx * ny - wy * nx) / den;
-      if (t > 0 && s >= -1e-12 && s <= 1 + 1e-12 && t < bestT) {
+      const t = rayHit(px, py, nx, ny, edges[4 * e], edges[4 * e + 1], edges[4 * e + 2], edges[4 * e + 3], 1e-12);
+      if (t > 0 && t < bestT) {
         bestT = t;
         best = e;
       }
@@ -391,8 +389,6 @@ function firstHit(grid: WallGrid, edges: Float64Array, self: number, px: number,
  */
 class StretchList {
   n = 0;
-  a: number[] = [];
-  b: number[] = [];
   cx0: number[] = [];
   cy0: number[] = [];
   cx1: number[] = [];
@@ -461,8 +457,6 @@ class StretchList {
     }
     if (capped && !(hi - lo > d)) return;
     this.n++;
-    this.a.push(a);
-    this.b.push(b);
     this.cx0.push(mx0);
     this.cy0.push(my0);
     this.cx1.push(mx1);
@@ -476,6 +470,11 @@ class StretchList {
     this.ivEdge.push(a, b);
     this.ivLo.push(lo, bLo);
     this.ivHi.push(hi, bHi);
+  }
+
+  /** Length of stretch s along its midline. */
+  length(s: number): number {
+    return Math.sqrt((this.cx1[s] - this.cx0[s]) ** 2 + (this.cy1[s] - this.cy0[s]) ** 2);
   }
 
   /** The stretch end at an interval's high end: on wall a that is the stretch's end, on wall b its start. */
@@ -502,13 +501,7 @@ class StretchList {
  * where two overlap (one wall claimed by two stretches: not a plain channel).
  */
 function wallIntervals(st: StretchList, nE: number): { order: Int32Array; iStart: Int32Array } | null {
-  const nI = st.ivEdge.length;
-  const iStart = new Int32Array(nE + 1);
-  for (let i = 0; i < nI; i++) iStart[st.ivEdge[i] + 1]++;
-  for (let e = 0; e < nE; e++) iStart[e + 1] += iStart[e];
-  const fill = iStart.slice(0, nE);
-  const order = new Int32Array(nI);
-  for (let i = 0; i < nI; i++) order[fill[st.ivEdge[i]]++] = i;
+  const [iStart, order] = bucket(Int32Array.from(st.ivEdge), nE);
   for (let e = 0; e < nE; e++) {
     const k0 = iStart[e], k1 = iStart[e + 1];
     if (k1 - k0 < 2) continue;
