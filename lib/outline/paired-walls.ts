@@ -67,21 +67,23 @@ export function readPairedWalls(prep: OrientedRings, edges: Float64Array, ringEd
   const near: number[] = [];
 
   // 1. Pairs: the wall each edge's midpoint faces (a ray along its inward normal), kept when antiparallel.
-  const keys: number[] = [];
+  // Pair keys a·nE + b (a < b): exact in a double up to 2^53, and a typed array sorts numbers without a comparator.
+  const keys = new Float64Array(nE);
+  let nKeys = 0;
   for (let a = 0; a < nE; a++) {
     const px = (edges[4 * a] + edges[4 * a + 2]) / 2, py = (edges[4 * a + 1] + edges[4 * a + 3]) / 2;
     const nx = -uy[a], ny = ux[a];
     const b = firstHit(grid, edges, a, px, py, nx, ny, extent, near);
     if (b < 0) return null;
-    if (Math.abs(ux[a] * uy[b] - uy[a] * ux[b]) <= PARALLEL_SIN && ux[a] * ux[b] + uy[a] * uy[b] < 0) keys.push(a < b ? a * nE + b : b * nE + a);
+    if (Math.abs(ux[a] * uy[b] - uy[a] * ux[b]) <= PARALLEL_SIN && ux[a] * ux[b] + uy[a] * uy[b] < 0) keys[nKeys++] = a < b ? a * nE + b : b * nE + a;
   }
-  keys.sort((p, q) => p - q);
+  const sorted = keys.subarray(0, nKeys).sort();
 
   // 2. Stretches: the overlap of each pair, kept where nothing else comes within the half-width of its midline.
-  const st = new StretchList();
-  for (let k = 0; k < keys.length; k++) {
-    if (k > 0 && keys[k] === keys[k - 1]) continue;
-    const a = Math.floor(keys[k] / nE), b = keys[k] % nE;
+  const st = new StretchList(nKeys);
+  for (let k = 0; k < nKeys; k++) {
+    if (k > 0 && sorted[k] === sorted[k - 1]) continue;
+    const a = Math.floor(sorted[k] / nE), b = sorted[k] % nE;
     st.tryPair(edges, ux, uy, len, a, b, grid, near);
   }
   const nS = st.n;
@@ -99,21 +101,29 @@ export function readPairedWalls(prep: OrientedRings, edges: Float64Array, ringEd
   };
   const selfJoined = new Uint8Array(2 * nS);
   // Gaps: the end each leaves from, and the wall points along it (x y pairs) from gapStart[g] to gapStart[g + 1].
-  const gapEnd: number[] = [];
-  const gapStart: number[] = [];
-  const gapPts: number[] = [];
+  // One gap per wall interval; its points are its two interval ends and the ring vertices between (each vertex in
+  // about one gap), so the columns are sized once (the points grown if ever needed).
+  const gapEnd = new Int32Array(2 * nS);
+  const gapStart = new Int32Array(2 * nS + 1);
+  let gapPts = new Float64Array(2 * (4 * nS + nE) + 8);
+  let nGaps = 0, nPts = 0;
+  const put = (x: number, y: number) => {
+    if (nPts + 2 > gapPts.length) gapPts = grownCopy(gapPts, 2 * gapPts.length);
+    gapPts[nPts++] = x;
+    gapPts[nPts++] = y;
+  };
   const pushPoint = (iv: number, high: boolean) => {
     const e = st.ivEdge[iv];
     const t = high ? st.ivHi[iv] : st.ivLo[iv];
-    gapPts.push(edges[4 * e] + ux[e] * t, edges[4 * e + 1] + uy[e] * t);
+    put(edges[4 * e] + ux[e] * t, edges[4 * e + 1] + uy[e] * t);
   };
   const joinGap = (from: number, to: number, ring: number): void => {
     const x = st.hiEnd(from), y = st.loEnd(to);
     const rx = find(x), ry = find(y);
     if (x === y) selfJoined[x] = 1;
     if (rx !== ry) parent[rx] = ry;
-    gapEnd.push(x);
-    gapStart.push(gapPts.length);
+    gapEnd[nGaps] = x;
+    gapStart[nGaps++] = nPts;
     const ef = st.ivEdge[from], et = st.ivEdge[to];
     pushPoint(from, true);
     // The ring vertices between (none when both lie on one edge in order).
@@ -121,7 +131,7 @@ export function readPairedWalls(prep: OrientedRings, edges: Float64Array, ringEd
       const e0 = ringEdgeStart[ring], e1 = ringEdgeStart[ring + 1];
       for (let e = ef, steps = 0; steps < e1 - e0; steps++) {
         e = e + 1 === e1 ? e0 : e + 1;
-        gapPts.push(edges[4 * e], edges[4 * e + 1]);
+        put(edges[4 * e], edges[4 * e + 1]);
         if (e === et) break;
       }
     }
@@ -141,7 +151,7 @@ export function readPairedWalls(prep: OrientedRings, edges: Float64Array, ringEd
     if (first < 0) return null;
     joinGap(last, first, r);
   }
-  gapStart.push(gapPts.length);
+  gapStart[nGaps] = nPts;
 
   // 4. Joints: the ends each group joins, their centre where the centrelines meet, checked to stay local.
   const joints = new Joints(nS, find, gapEnd, gapStart, gapPts);
@@ -248,7 +258,7 @@ class Joints {
   /** Widest half-width among the stretches ending at each joint. */
   readonly rMax: Float64Array;
 
-  constructor(nS: number, find: (x: number) => number, gapEnd: number[], readonly gapStart: number[], readonly gapPts: number[]) {
+  constructor(nS: number, find: (x: number) => number, gapEnd: Int32Array, readonly gapStart: Int32Array, readonly gapPts: Float64Array) {
     const nX = 2 * nS;
     const of = new Int32Array(nX).fill(-1);
     let n = 0;
@@ -261,7 +271,8 @@ class Joints {
     this.n = n;
     this.of = of;
     [this.start, this.ends] = bucket(of, n);
-    const gapGroup = Int32Array.from(gapEnd, (x) => of[x]);
+    const gapGroup = new Int32Array(gapEnd.length);
+    for (let q = 0; q < gapEnd.length; q++) gapGroup[q] = of[gapEnd[q]];
     [this.gapFrom, this.gaps] = bucket(gapGroup, n);
     this.x = new Float64Array(n);
     this.y = new Float64Array(n);
@@ -384,22 +395,31 @@ function firstHit(grid: WallGrid, edges: Float64Array, self: number, px: number,
 }
 
 /**
- * Straight stretches between facing walls, in typed-array-like columns. Stretch s runs along its wall a from
- * (cx0, cy0) to (cx1, cy1) on the midline, half-width r; end 2s is its start, 2s + 1 its end.
+ * Straight stretches between facing walls, in typed columns sized for every candidate pair. Stretch s runs along
+ * its wall a from (cx0, cy0) to (cx1, cy1) on the midline, half-width r; end 2s is its start, 2s + 1 its end.
  */
 class StretchList {
   n = 0;
-  cx0: number[] = [];
-  cy0: number[] = [];
-  cx1: number[] = [];
-  cy1: number[] = [];
-  r: number[] = [];
-  dx: number[] = [];
-  dy: number[] = [];
+  readonly cx0: Float64Array;
+  readonly cy0: Float64Array;
+  readonly cx1: Float64Array;
+  readonly cy1: Float64Array;
+  readonly r: Float64Array;
+  readonly dx: Float64Array;
+  readonly dy: Float64Array;
   /** Wall intervals, two per stretch (on a: 2s, on b: 2s + 1): edge, parameter range (distance from its start). */
-  ivEdge: number[] = [];
-  ivLo: number[] = [];
-  ivHi: number[] = [];
+  readonly ivEdge: Int32Array;
+  readonly ivLo: Float64Array;
+  readonly ivHi: Float64Array;
+
+  /** @param capacity the most stretches there can be (candidate pairs). */
+  constructor(capacity: number) {
+    const f = () => new Float64Array(capacity);
+    [this.cx0, this.cy0, this.cx1, this.cy1, this.r, this.dx, this.dy] = [f(), f(), f(), f(), f(), f(), f()];
+    this.ivEdge = new Int32Array(2 * capacity);
+    this.ivLo = new Float64Array(2 * capacity);
+    this.ivHi = new Float64Array(2 * capacity);
+  }
 
   /** Add the stretch between walls a and b if they overlap, face each other and nothing else comes nearer. */
   tryPair(edges: Float64Array, ux: Float64Array, uy: Float64Array, len: Float64Array, a: number, b: number, grid: WallGrid, near: number[]): void {
@@ -456,20 +476,23 @@ class StretchList {
       if (o0 * o1 <= 0 || Math.min(Math.abs(o0), Math.abs(o1)) < clear) return;
     }
     if (capped && !(hi - lo > d)) return;
-    this.n++;
-    this.cx0.push(mx0);
-    this.cy0.push(my0);
-    this.cx1.push(mx1);
-    this.cy1.push(my1);
-    this.r.push(r);
-    this.dx.push(dx);
-    this.dy.push(dy);
+    const s = this.n++;
+    this.cx0[s] = mx0;
+    this.cy0[s] = my0;
+    this.cx1[s] = mx1;
+    this.cy1[s] = my1;
+    this.r[s] = r;
+    this.dx[s] = dx;
+    this.dy[s] = dy;
     // On b (running the other way) the stretch's start is at the larger parameter.
     const bLo = Math.max(0, (ax + dx * hi - bx0) * ux[b] + (ay + dy * hi - by0) * uy[b]);
     const bHi = Math.min(len[b], (ax + dx * lo - bx0) * ux[b] + (ay + dy * lo - by0) * uy[b]);
-    this.ivEdge.push(a, b);
-    this.ivLo.push(lo, bLo);
-    this.ivHi.push(hi, bHi);
+    this.ivEdge[2 * s] = a;
+    this.ivEdge[2 * s + 1] = b;
+    this.ivLo[2 * s] = lo;
+    this.ivLo[2 * s + 1] = bLo;
+    this.ivHi[2 * s] = hi;
+    this.ivHi[2 * s + 1] = bHi;
   }
 
   /** Length of stretch s along its midline. */
@@ -501,7 +524,7 @@ class StretchList {
  * where two overlap (one wall claimed by two stretches: not a plain channel).
  */
 function wallIntervals(st: StretchList, nE: number): { order: Int32Array; iStart: Int32Array } | null {
-  const [iStart, order] = bucket(Int32Array.from(st.ivEdge), nE);
+  const [iStart, order] = bucket(st.ivEdge.subarray(0, 2 * st.n), nE);
   for (let e = 0; e < nE; e++) {
     const k0 = iStart[e], k1 = iStart[e + 1];
     if (k1 - k0 < 2) continue;
