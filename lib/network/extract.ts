@@ -612,8 +612,13 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       masks.push({ layer: l.name, ringsM: read.rings.map((ring) => ring.map(([x, y]) => [x * mpu, y * mpu] as [number, number])) });
       const li = indexOfLayer(layer);
       const ti = indexOfType(drawing.entities[src].type);
-      const ids = read.profiles.map((pr) => works.profiles.add(pr.s, pr.w));
-      read.pieces.forEach((p, k) => works.pushProfiled(p, pieceLength(p), li, ti, src, read.curveRadii[k], ids[read.pieceProfile[k]], read.pieceS[2 * k], read.pieceS[2 * k + 1]));
+      const ids = new Int32Array(read.axis.paths.length);
+      for (let p = 0; p < ids.length; p++) ids[p] = works.profiles.add(read.profileS, read.profileW, read.profileStart[p], read.profileStart[p + 1]);
+      const { lines, curveRadii, pieceProfile, pieceS } = read;
+      for (let k = 0; k < read.count; k++) {
+        const bend = curveRadii[k];
+        works.pushProfiled(lines[4 * k], lines[4 * k + 1], lines[4 * k + 2], lines[4 * k + 3], li, ti, src, Number.isNaN(bend) ? null : bend, ids[pieceProfile[k]], pieceS[2 * k], pieceS[2 * k + 1]);
+      }
       const um = (u: number) => fmt(u * mpu * 1e6);
       const ax = read.axis;
       warnings.push({

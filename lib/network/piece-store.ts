@@ -19,17 +19,17 @@ export class WidthProfiles {
   /** Profile id's points are S[off[id]] .. S[off[id + 1] - 1]. */
   private readonly off: number[] = [0];
 
-  /** Register a profile (copied); returns its id. */
-  add(s: ArrayLike<number>, w: ArrayLike<number>): number {
-    const at = this.off[this.off.length - 1], n = s.length;
+  /** Register a profile (copied): positions s and widths w from index `from` (default 0) up to `to` (default all); returns its id. */
+  add(s: ArrayLike<number>, w: ArrayLike<number>, from = 0, to = s.length): number {
+    const at = this.off[this.off.length - 1], n = to - from;
     if (at + n > this.S.length) {
       const c = Math.max(2 * this.S.length, at + n);
       this.S = grownCopy(this.S, c);
       this.W = grownCopy(this.W, c);
     }
     for (let k = 0; k < n; k++) {
-      this.S[at + k] = s[k];
-      this.W[at + k] = w[k];
+      this.S[at + k] = s[from + k];
+      this.W[at + k] = w[from + k];
     }
     this.off.push(at + n);
     return this.off.length - 2;
@@ -216,12 +216,24 @@ export class PieceStore {
   }
 
   /**
-   * Append a straight piece whose widths follow profile `profile` from position s0 (its start) to s1 (its end);
-   * its w0 and w1 are set to the profile's widths there.
+   * Append the straight piece (x0, y0) → (x1, y1) whose widths follow profile `profile` from position s0 (its
+   * start) to s1 (its end); its w0 and w1 are set to the profile's widths there. Coordinates, not a piece object:
+   * an outline layer gives thousands.
    */
-  pushProfiled(p: LinePiece, len: number, layer: number, type: number, src: number, curveR: number | null, profile: number, s0: number, s1: number): void {
-    this.push(p, len, layer, type, src, curveR);
-    const i = this.n - 1;
+  pushProfiled(x0: number, y0: number, x1: number, y1: number, layer: number, type: number, src: number, curveR: number | null, profile: number, s0: number, s1: number): void {
+    if (this.n === this.kind.length) this.grow();
+    const i = this.n++;
+    this.kind[i] = 0;
+    this.g0[i] = x0;
+    this.g1[i] = y0;
+    this.g2[i] = x1;
+    this.g3[i] = y1;
+    this.flags[i] = curveR === null ? CURVE_NULL : 0;
+    if (curveR !== null) this.curveR[i] = curveR;
+    this.len[i] = Math.sqrt((x1 - x0) ** 2 + (y1 - y0) ** 2);
+    this.layer[i] = layer;
+    this.type[i] = type;
+    this.src[i] = src;
     this.setProfile(i, profile, s0, s1);
   }
 

@@ -2,7 +2,7 @@
  * Mask outlines of one channel layer (closed paths, circles) → centreline
  * pieces with drawn widths, ready for the network builder. Drawing units.
  */
-import type { CircleEntity, LinePiece, PathEntity } from "../dxf/types";
+import type { CircleEntity, PathEntity } from "../dxf/types";
 import { samplePoints, startOf } from "../network/geometry";
 import { extractMedialAxis, type MedialAxisResult } from "./medial-axis";
 import { circumradius, type Ring } from "./region";
@@ -13,15 +13,23 @@ const CIRCLE_SIDES = 96;
 
 export interface OutlineLayerResult {
   /**
-   * Centreline pieces: each path's shape (its points within an eighth of the tolerance step, collinear points
-   * dropped), drawing units; w0/w1 carry the local width (twice the wall distance) at the piece's ends.
+   * Centreline pieces, straight: each path's shape (its points within an eighth of the tolerance step, collinear
+   * points dropped), x0 y0 x1 y1 per piece in one column, drawing units. A piece's widths come from its path's
+   * profile (pieceProfile, pieceS).
    */
-  pieces: LinePiece[];
-  /** Smallest bend radius of the path each piece belongs to (drawing units), null where straight. */
-  curveRadii: (number | null)[];
-  /** Each path's width profile: positions along it from its first point and widths, drawing units. */
-  profiles: { s: Float64Array; w: Float64Array }[];
-  /** For each piece, its path's profile, and its start and end positions along it (2 per piece). */
+  lines: Float64Array;
+  /** Number of pieces. */
+  count: number;
+  /** Smallest bend radius of the path each piece belongs to (drawing units), NaN where straight. */
+  curveRadii: Float64Array;
+  /**
+   * Every path's width profile in one pair of columns: path p's positions along it from its first point (s) and
+   * widths (w) are at profileStart[p] .. profileStart[p + 1] − 1, drawing units.
+   */
+  profileS: Float64Array;
+  profileW: Float64Array;
+  profileStart: Int32Array;
+  /** For each piece, its path, and its start and end positions along the path (2 per piece). */
   pieceProfile: Int32Array;
   pieceS: Float64Array;
   /** The medial axis and the tolerances it used. */
@@ -58,41 +66,45 @@ export function ringsOf(shapes: (PathEntity | CircleEntity)[]): Ring[] {
 export function readOutlineLayer(shapes: (PathEntity | CircleEntity)[], stepUnits?: number): OutlineLayerResult {
   const rings = ringsOf(shapes);
   const axis = extractMedialAxis(rings, stepUnits);
-  const pieces: LinePiece[] = [];
-  const curveRadii: (number | null)[] = [];
-  const profiles: { s: Float64Array; w: Float64Array }[] = [];
-  const pieceProfile: number[] = [];
-  const pieceS: number[] = [];
-  const keep: number[] = [];
-  const scratch = { keep: new Uint8Array(64), stack: [] as number[] };
-  // Every path's profile is a view into one pair of columns (a small typed array per path was mostly GC).
+  const nPaths = axis.paths.length;
+  // Columns sized once: a path of m points gives at most m − 1 pieces (no object per piece or per profile).
   let total = 0;
   for (const path of axis.paths) total += path.radii.length;
-  const allS = new Float64Array(total), allW = new Float64Array(total);
-  let at = 0;
-  axis.paths.forEach((path, pi) => {
-    const { xy, radii } = path;
+  const profileS = new Float64Array(total), profileW = new Float64Array(total);
+  const profileStart = new Int32Array(nPaths + 1);
+  const lines = new Float64Array(4 * total), curveRadii = new Float64Array(total);
+  const pieceProfile = new Int32Array(total), pieceS = new Float64Array(2 * total);
+  const keep: number[] = [];
+  const scratch = { keep: new Uint8Array(64), stack: [] as number[] };
+  let at = 0, count = 0;
+  for (let pi = 0; pi < nPaths; pi++) {
+    const { xy, radii, bendRadius: drawnBend } = axis.paths[pi];
     const m = radii.length;
-    const ps = allS.subarray(at, at + m), pw = allW.subarray(at, at + m);
-    at += m;
+    profileStart[pi] = at;
     for (let i = 0; i < m; i++) {
-      ps[i] = i === 0 ? 0 : ps[i - 1] + Math.sqrt((xy[2 * i] - xy[2 * i - 2]) ** 2 + (xy[2 * i + 1] - xy[2 * i - 1]) ** 2);
-      pw[i] = 2 * radii[i];
+      profileS[at + i] = i === 0 ? 0 : profileS[at + i - 1] + Math.sqrt((xy[2 * i] - xy[2 * i - 2]) ** 2 + (xy[2 * i + 1] - xy[2 * i - 1]) ** 2);
+      profileW[at + i] = 2 * radii[i];
     }
-    profiles.push({ s: ps, w: pw });
-    const bend = path.bendRadius !== undefined ? path.bendRadius : bendRadius(xy, radii, ps);
+    const bend = (drawnBend !== undefined ? drawnBend : bendRadius(xy, radii, profileS, at)) ?? NaN;
     const nKeep = shapePoints(xy, m, axis.toleranceStepUnits / 8, keep, scratch);
     for (let q = 0; q + 1 < nKeep; q++) {
       const i = keep[q], j = keep[q + 1];
       const x0 = xy[2 * i], y0 = xy[2 * i + 1], x1 = xy[2 * j], y1 = xy[2 * j + 1];
       if (x0 === x1 && y0 === y1) continue;
-      pieces.push({ kind: "line", x0, y0, x1, y1, w0: pw[i], w1: pw[j] });
-      curveRadii.push(bend);
-      pieceProfile.push(pi);
-      pieceS.push(ps[i], ps[j]);
+      lines[4 * count] = x0;
+      lines[4 * count + 1] = y0;
+      lines[4 * count + 2] = x1;
+      lines[4 * count + 3] = y1;
+      curveRadii[count] = bend;
+      pieceProfile[count] = pi;
+      pieceS[2 * count] = profileS[at + i];
+      pieceS[2 * count + 1] = profileS[at + j];
+      count++;
     }
-  });
-  return { pieces, curveRadii, profiles, pieceProfile: Int32Array.from(pieceProfile), pieceS: Float64Array.from(pieceS), axis, rings };
+    at += m;
+  }
+  profileStart[nPaths] = at;
+  return { lines, count, curveRadii, profileS, profileW, profileStart, pieceProfile, pieceS, axis, rings };
 }
 
 /**
@@ -123,17 +135,17 @@ function shapePoints(xy: Float64Array, m: number, tol: number, out: number[], sc
 }
 
 /**
- * Smallest bend radius along a centreline (x y interleaved, positions s along it) from consecutive point
- * triples, leaving out the first and last two local radii of the path (where it turns into a junction or ends);
- * null when straight (radius above 1000 local widths).
+ * Smallest bend radius along a centreline (x y interleaved, positions along it in s from index at) from
+ * consecutive point triples, leaving out the first and last two local radii of the path (where it turns into a
+ * junction or ends); null when straight (radius above 1000 local widths).
  */
-function bendRadius(xy: Float64Array, radii: Float64Array, s: Float64Array): number | null {
+function bendRadius(xy: Float64Array, radii: Float64Array, s: Float64Array, at: number): number | null {
   const m = radii.length;
-  const total = s[m - 1];
+  const total = s[at + m - 1];
   let min = Infinity;
   for (let i = 1; i + 1 < m; i++) {
     const margin = 2 * radii[i];
-    if (s[i - 1] < margin || total - s[i + 1] < margin) continue;
+    if (s[at + i - 1] < margin || total - s[at + i + 1] < margin) continue;
     const r = circumradius(xy[2 * i - 2], xy[2 * i - 1], xy[2 * i], xy[2 * i + 1], xy[2 * i + 2], xy[2 * i + 3]);
     if (r < 1000 * 2 * radii[i]) min = Math.min(min, r);
   }

@@ -71,7 +71,7 @@ describe("width profiles along straight pieces", () => {
 
   it("a part of a profiled line keeps the profile over its own stretch, with the widths there at its ends", () => {
     const a = new PieceStore(1, table());
-    a.pushProfiled({ kind: "line", x0: 0, y0: 0, x1: 10, y1: 0, w0: null, w1: null }, 10, 0, 0, 0, null, 0, 0, 10);
+    a.pushProfiled(0, 0, 10, 0, 0, 0, 0, null, 0, 0, 10);
     expect([a.drawnW0(0), a.drawnW1(0)]).toEqual([4, 6]);
     const b = new PieceStore(1, a.profiles);
     b.pushPart(a, 0, { kind: "line", x0: 1, y0: 0, x1: 9, y1: 0, w0: 3.5, w1: 5.5 }, 8);
