@@ -538,6 +538,12 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   };
   // One box reused for every channel piece (no tuple per piece).
   const box = new Float64Array(4);
+  const growByPieces = (ps: Piece[]) => {
+    for (const p of ps) {
+      bboxInto(p, box, 0, 0);
+      grow(box);
+    }
+  };
   // The last layer looked up, remembered: entities come in long runs on one layer (one Map lookup per run).
   let lastName: string | null = null;
   let lastLayer: ResolvedLayer | undefined;
@@ -561,7 +567,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     if ((role === "port" || role === "outline") && e.kind === "circle") grow([e.cx - e.r, e.cy - e.r, e.cx + e.r, e.cy + e.r]);
     else if (role === "port" || role === "outline" || (role === "channel" && e.kind === "circle")) {
       if (e.kind === "circle") grow([e.cx - e.r, e.cy - e.r, e.cx + e.r, e.cy + e.r]);
-      else for (const p of e.pieces) grow(bboxOf(p));
+      else growByPieces(e.pieces);
     }
     if (role === "port" && e.kind === "circle") portCircles.push(e);
     else if (role === "outline") {
@@ -573,7 +579,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       let drawnWidth = false;
       if (e.kind === "path") for (let k = 0; k < e.pieces.length && !drawnWidth; k++) drawnWidth = e.pieces[k].w0 !== null;
       if (e.kind === "circle" || (e.closed && !drawnWidth)) {
-        if (e.kind === "path") for (const p of e.pieces) grow(bboxOf(p));
+        if (e.kind === "path") growByPieces(e.pieces);
         // Closed shapes on a channel layer are mask outlines (chambers, filled channels), kept for an outline reader.
         (shapesByLayer.get(e.layer) ?? shapesByLayer.set(e.layer, []).get(e.layer)!).push(e);
         continue;

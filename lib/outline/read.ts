@@ -51,7 +51,13 @@ export function ringsOf(shapes: (PathEntity | CircleEntity)[]): Ring[] {
     if (s.pieces.length === 0) continue;
     const st = startOf(s.pieces[0]);
     const ring: Ring = [[st.x, st.y]];
-    for (const p of s.pieces) for (const q of samplePoints(p)) ring.push([q.x, q.y]);
+    for (const p of s.pieces) {
+      if (p.kind === "line") ring.push([p.x1, p.y1]);
+      else for (const q of samplePoints(p)) ring.push([q.x, q.y]);
+    }
+    // A closed path ends where it starts: the ring closes on its own (cleanRings would copy it to drop the point).
+    const last = ring[ring.length - 1];
+    if (ring.length > 1 && last[0] === st.x && last[1] === st.y) ring.pop();
     rings.push(ring);
   }
   return rings;
