@@ -307,8 +307,12 @@ export interface SegmentSection {
 /** The width profile of a segment as (s, w) breakpoints from 0 to L, linear in between. */
 export function widthBreakpoints(segment: NetworkSegment): WidthSample[] {
   const L = segment.lengthM;
-  if (segment.widthProfile && segment.widthProfile.length >= 2) {
-    const pts = [...segment.widthProfile].filter((p) => Number.isFinite(p.sM) && Number.isFinite(p.widthM)).sort((a, b) => a.sM - b.sM);
+  const prof = segment.widthProfile;
+  if (prof && prof.sM.length >= 2) {
+    const pts = prof.sM
+      .map((sM, k) => ({ sM, widthM: prof.widthM[k] }))
+      .filter((p) => Number.isFinite(p.sM) && Number.isFinite(p.widthM))
+      .sort((a, b) => a.sM - b.sM);
     if (pts.length >= 2) {
       const out = pts.map((p) => ({ sM: Math.min(Math.max(p.sM, 0), L), widthM: p.widthM }));
       if (out[0].sM > 0) out.unshift({ sM: 0, widthM: out[0].widthM });

@@ -16,7 +16,7 @@ import { arcFraction, bboxInto, bboxOf, circleCrossings, endOf, intersect, lineA
 import { CellHash, joinNearPoints, StaticGrid } from "./grid";
 import { describeLayers, planLayers, type LayerPlan, type ResolvedLayer } from "./layers";
 import { readOutlineLayer } from "../outline/read";
-import type { ChannelNetwork, LayoutWarning, NetworkNode, NetworkPort, NetworkSegment, NodeKind, WidthSample } from "./types";
+import type { ChannelNetwork, LayoutWarning, NetworkNode, NetworkPort, NetworkSegment, NodeKind } from "./types";
 import { UnionFind } from "../graph/union-find";
 import { PieceStore } from "./piece-store";
 
@@ -941,7 +941,7 @@ function endAt(ends: [number, number][], node: number, x: number, y: number): [n
 /** A piece's width points (fractions along it and widths, metres), reused for every piece of every segment. */
 const profF: number[] = [];
 const profW: number[] = [];
-/** The segment's width profile while it is built (positions and widths, SI), made into WidthSample objects once at the end. */
+/** The segment's width profile while it is built (positions and widths, SI), copied into its columns once at the end. */
 const segS: number[] = [];
 const segW: number[] = [];
 
@@ -1078,10 +1078,6 @@ function makeSegment(
     seg.minWidthM = minW;
     seg.maxWidthM = maxW;
   }
-  if (!linear) {
-    const profile = new Array<WidthSample>(nProf);
-    for (let k = 0; k < nProf; k++) profile[k] = { sM: segS[k], widthM: segW[k] };
-    seg.widthProfile = profile;
-  }
+  if (!linear) seg.widthProfile = { sM: segS.slice(0, nProf), widthM: segW.slice(0, nProf) };
   return seg;
 }

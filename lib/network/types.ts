@@ -32,6 +32,16 @@ export interface WidthSample {
   widthM: number;
 }
 
+/**
+ * A segment's width profile as two columns of one length: distances from the `from` end (ascending) and the
+ * local widths there, linear in between. Columns rather than a point object each: an outline layout's junction
+ * flares give every segment ten or so points, and thousands of segments.
+ */
+export interface WidthProfile {
+  sM: number[];
+  widthM: number[];
+}
+
 export interface NetworkSegment {
   id: string;
   layer: string;
@@ -50,7 +60,7 @@ export interface NetworkSegment {
   /** Centreline as a polyline in metres, from `from` to `to`, for drawing and comparison. */
   path: [number, number][];
   /** Optional width profile along the segment (tapers, outline layouts); hydraulics integrates over it. */
-  widthProfile?: WidthSample[];
+  widthProfile?: WidthProfile;
   minWidthM?: number;
   maxWidthM?: number;
 }

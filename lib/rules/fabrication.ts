@@ -16,8 +16,8 @@ function segPath(network: ChannelNetwork, seg: NetworkSegment, nodeXY: Map<strin
   return [nodeXY.get(seg.from) ?? [0, 0], nodeXY.get(seg.to) ?? [0, 0]];
 }
 
-const minWidth = (s: NetworkSegment) => s.minWidthM ?? Math.min(s.widthM, s.endWidthM > 0 ? s.endWidthM : s.widthM, ...(s.widthProfile?.map((p) => p.widthM) ?? []));
-const maxWidth = (s: NetworkSegment) => s.maxWidthM ?? Math.max(s.widthM, s.endWidthM, ...(s.widthProfile?.map((p) => p.widthM) ?? []));
+const minWidth = (s: NetworkSegment) => s.minWidthM ?? Math.min(s.widthM, s.endWidthM > 0 ? s.endWidthM : s.widthM, ...(s.widthProfile?.widthM ?? []));
+const maxWidth = (s: NetworkSegment) => s.maxWidthM ?? Math.max(s.widthM, s.endWidthM, ...(s.widthProfile?.widthM ?? []));
 const mid = (p: Pt[]) => ({ xM: p[Math.floor(p.length / 2)][0], yM: p[Math.floor(p.length / 2)][1] });
 
 /** Fabrication flags for every segment, neighbouring pair and port against the process profile. */

@@ -202,8 +202,8 @@ describe("widths", () => {
     const mean = (((wStart + a1) / 2) * 2.5 + ((b0 + wEnd) / 2) * 2.5) / 5;
     const prof = s.widthProfile!;
     const forward = s.path[0][0] < s.path.at(-1)![0];
-    expectClose(forward ? prof[0].widthM : prof.at(-1)!.widthM, wStart, 1e-9);
-    expectClose(forward ? s.endWidthM : prof[0].widthM, wEnd, 1e-9);
+    expectClose(forward ? prof.widthM[0] : prof.widthM.at(-1)!, wStart, 1e-9);
+    expectClose(forward ? s.endWidthM : prof.widthM[0], wEnd, 1e-9);
     expectClose(s.widthM, mean, 1e-9);
     expectClose(s.minWidthM!, wEnd, 1e-9);
     expectClose(s.maxWidthM!, wStart, 1e-9);

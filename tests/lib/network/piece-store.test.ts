@@ -100,7 +100,7 @@ describe("width profiles along straight pieces", () => {
     const s = net.segments[0];
     expect(s.maxWidthM! / 200e-6).toBeCloseTo(1, 2);
     expect(s.minWidthM! / 100e-6).toBeCloseTo(1, 2);
-    expect(s.widthProfile!.length).toBeGreaterThan(4);
+    expect(s.widthProfile!.sM.length).toBeGreaterThan(4);
     expect(s.widthM).toBeGreaterThan(100e-6);
     expect(s.widthM).toBeLessThan(200e-6);
   });

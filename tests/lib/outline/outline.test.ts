@@ -35,14 +35,14 @@ function flowShapes(name: string): (PathEntity | CircleEntity)[] {
 
 /** Width at distance sM along a segment, from its profile or its two end widths. */
 function widthAt(s: NetworkSegment, sM: number): number {
-  const prof = s.widthProfile ?? [{ sM: 0, widthM: s.widthM }, { sM: s.lengthM, widthM: s.endWidthM }];
-  for (let i = 1; i < prof.length; i++) {
-    if (sM <= prof[i].sM) {
-      const a = prof[i - 1], b = prof[i];
-      return b.sM === a.sM ? b.widthM : a.widthM + ((b.widthM - a.widthM) * (sM - a.sM)) / (b.sM - a.sM);
+  const prof = s.widthProfile ?? { sM: [0, s.lengthM], widthM: [s.widthM, s.endWidthM] };
+  for (let i = 1; i < prof.sM.length; i++) {
+    if (sM <= prof.sM[i]) {
+      const sa = prof.sM[i - 1], sb = prof.sM[i], wa = prof.widthM[i - 1], wb = prof.widthM[i];
+      return sb === sa ? wb : wa + ((wb - wa) * (sM - sa)) / (sb - sa);
     }
   }
-  return prof.at(-1)!.widthM;
+  return prof.widthM.at(-1)!;
 }
 
 describe("outline versions of straight and serpentine channels", () => {
