@@ -15,7 +15,8 @@ import { parseQuantity } from "../units/quantity";
 import { arcFraction, bboxInto, bboxOf, circleCrossings, endOf, intersect, lineArcHits, pieceLength, pointAt, reversed, samplePoints, startOf, subPiece } from "./geometry";
 import { CellHash, joinNearPoints, StaticGrid } from "./grid";
 import { describeLayers, planLayers, type LayerPlan, type ResolvedLayer } from "./layers";
-import { readOutlineLayer } from "../outline/read";
+import { readOutlineLayer, ringsOf } from "../outline/read";
+import type { Ring } from "../outline/region";
 import type { ChannelNetwork, LayoutWarning, NetworkNode, NetworkPort, NetworkSegment, NodeKind } from "./types";
 import { UnionFind } from "../graph/union-find";
 import { PieceStore } from "./piece-store";
@@ -602,22 +603,36 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     }
   }
   flushLines();
-  const masks: NonNullable<ChannelNetwork["masks"]> = [];
+  // Mask outlines (issue 9), per layer: their rings, and the first shape's entity index and type (the pieces read
+  // from them are attributed to it).
+  const outlines = new Map<string, { rings: Ring[]; shapes: number; src: number; type: string }>();
+  for (const [name, list] of shapesByLayer) {
+    const src = drawing.entities.indexOf(list[0]);
+    outlines.set(name, { rings: ringsOf(list), shapes: list.length, src, type: drawing.entities[src].type });
+  }
+  shapesByLayer.clear();
+  // The drawing is extractNetwork's own (read there, never returned) and its entities are not needed past this point
+  // (the store holds the channel pieces; ports, texts, outlines and mask rings are in their own lists): letting the
+  // list go lets the entities and their piece objects be collected during the outline reads and the build.
+  drawing.entities = [];
+  // The mask rings for drawing, kept flat until the network is assembled.
+  const maskRings: { layer: string; flat: FlatRings }[] = [];
   for (const l of plan.summaries) {
     if (l.role !== "channel") continue;
-    const shapes = shapesByLayer.get(l.name)?.length ?? 0;
+    const mask = outlines.get(l.name);
+    const shapes = mask?.shapes ?? 0;
     const lines = linesByLayer.get(l.name) ?? 0;
     l.style = shapes > 0 && lines > 0 ? "mixed" : shapes > 0 ? "outline" : "centreline";
-    if (shapes > 0) {
-      // Mask outlines (issue 9): the filled area's centrelines (from facing wall pairs, else its medial axis) become
-      // centreline pieces carrying their local widths.
+    if (mask) {
+      // The filled area's centrelines (from facing wall pairs, else its medial axis) become centreline pieces
+      // carrying their local widths.
       const layer = plan.byName.get(l.name)!;
-      const list = shapesByLayer.get(l.name)!;
-      const src = drawing.entities.indexOf(list[0]);
-      const read = readOutlineLayer(list);
-      masks.push({ layer: l.name, ringsM: read.rings.map((ring) => ring.map(([x, y]) => [x * mpu, y * mpu] as [number, number])) });
+      const { src } = mask;
+      const read = readOutlineLayer(mask.rings);
+      maskRings.push({ layer: l.name, flat: flattenRings(mask.rings) });
+      outlines.delete(l.name);
       const li = indexOfLayer(layer);
-      const ti = indexOfType(drawing.entities[src].type);
+      const ti = indexOfType(mask.type);
       const ids = new Int32Array(read.axis.paths.length);
       for (let p = 0; p < ids.length; p++) ids[p] = works.profiles.add(read.profileS, read.profileW, read.profileStart[p], read.profileStart[p + 1]);
       const { lines, curveRadii, pieceProfile, pieceS } = read;
@@ -654,10 +669,6 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   } catch (e) {
     throw e instanceof LayoutError ? layoutError(e.code, e.message, plan) : e;
   }
-  // The drawing is extractNetwork's own (read there, never returned) and its entities are not needed past this point
-  // (the store holds the channel pieces; ports, texts, outlines and mask shapes are in their own lists): letting the
-  // list go frees the entities and their piece objects before the network is built.
-  drawing.entities = [];
 
   stage("sort by role");
   // Ports and trimming.
@@ -922,8 +933,39 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     outline,
     bounds,
     mappingProposed: plan.mappingProposed,
-    ...(masks.length > 0 ? { masks } : {}),
+    ...(maskRings.length > 0 ? { masks: maskRings.map((m) => ({ layer: m.layer, ringsM: ringsInMetres(m.flat, mpu) })) } : {}),
   };
+}
+
+/** Rings' points end to end (x y pairs); ring k's points are xy[2·start[k]] .. xy[2·start[k + 1]] (exclusive). */
+interface FlatRings {
+  xy: Float64Array;
+  start: Int32Array;
+}
+
+function flattenRings(rings: Ring[]): FlatRings {
+  const start = new Int32Array(rings.length + 1);
+  for (let k = 0; k < rings.length; k++) start[k + 1] = start[k] + rings[k].length;
+  const xy = new Float64Array(2 * start[rings.length]);
+  for (let k = 0, at = 0; k < rings.length; k++) {
+    const r = rings[k];
+    for (let i = 0; i < r.length; i++, at += 2) {
+      xy[at] = r[i][0];
+      xy[at + 1] = r[i][1];
+    }
+  }
+  return { xy, start };
+}
+
+/** Flat rings in drawing units as [x, y] rings in metres (the network's mask drawing). */
+function ringsInMetres(f: FlatRings, mpu: number): [number, number][][] {
+  const out: [number, number][][] = new Array(f.start.length - 1);
+  for (let k = 0; k + 1 < f.start.length; k++) {
+    const ring: [number, number][] = new Array(f.start[k + 1] - f.start[k]);
+    for (let i = f.start[k]; i < f.start[k + 1]; i++) ring[i - f.start[k]] = [f.xy[2 * i] * mpu, f.xy[2 * i + 1] * mpu];
+    out[k] = ring;
+  }
+  return out;
 }
 
 /**

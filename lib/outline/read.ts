@@ -34,8 +34,6 @@ export interface OutlineLayerResult {
   pieceS: Float64Array;
   /** The medial axis and the tolerances it used. */
   axis: MedialAxisResult;
-  /** The rings read, drawing units (for drawing the outline under the centrelines). */
-  rings: Ring[];
 }
 
 /** Rings of closed paths (arcs sampled every ≤ 5°) and circles, drawing units. */
@@ -65,12 +63,11 @@ export function ringsOf(shapes: (PathEntity | CircleEntity)[]): Ring[] {
 
 /**
  * Read one layer's mask outlines as centreline pieces.
- * @param shapes closed paths and circles of one channel layer, drawing units.
+ * @param rings the rings of the layer's closed paths and circles (ringsOf), drawing units.
  * @param stepUnits optional sampling step (drawing units); by default derived from the smallest width.
- * @returns line pieces with widths, the medial axis result (tolerances, regions, holes) and the rings.
+ * @returns line pieces with widths and the medial axis result (tolerances, regions, holes).
  */
-export function readOutlineLayer(shapes: (PathEntity | CircleEntity)[], stepUnits?: number): OutlineLayerResult {
-  const rings = ringsOf(shapes);
+export function readOutlineLayer(rings: Ring[], stepUnits?: number): OutlineLayerResult {
   const axis = extractMedialAxis(rings, stepUnits);
   const nPaths = axis.paths.length;
   // Columns sized once: a path of m points gives at most m − 1 pieces (no object per piece or per profile).
@@ -110,7 +107,7 @@ export function readOutlineLayer(shapes: (PathEntity | CircleEntity)[], stepUnit
     at += m;
   }
   profileStart[nPaths] = at;
-  return { lines, count, curveRadii, profileS, profileW, profileStart, pieceProfile, pieceS, axis, rings };
+  return { lines, count, curveRadii, profileS, profileW, profileStart, pieceProfile, pieceS, axis };
 }
 
 /**

@@ -11,7 +11,7 @@ import { describe, expect, it } from "vitest";
 import { extractNetwork } from "@/lib/network/extract";
 import { analyzeLayout } from "@/lib/analysis/analyze";
 import { readDxf } from "@/lib/dxf/read";
-import { readOutlineLayer } from "@/lib/outline/read";
+import { readOutlineLayer, ringsOf } from "@/lib/outline/read";
 import { LayoutError } from "@/lib/errors";
 import type { ChannelNetwork, NetworkSegment } from "@/lib/network/types";
 import type { CircleEntity, PathEntity } from "@/lib/dxf/types";
@@ -121,7 +121,7 @@ describe("tapered channel from a trapezoid outline", () => {
 describe("chamber with pillars", () => {
   for (const name of ["chamber-pillars-outline", "chamber-pieces-outline"]) {
     it(`${name} (${outlines[name].drawn_as}): one connected region with its 10 holes, one network from IN to OUT`, () => {
-      const read = readOutlineLayer(flowShapes(name));
+      const read = readOutlineLayer(ringsOf(flowShapes(name)));
       // Shapely: unary_union(chamber, leads) − posts is one polygon with 10 interiors (outlines/expected.json).
       expect(read.axis.regions).toBe(outlines[name].shapely_polygons);
       expect(read.axis.holes).toBe(outlines[name].shapely_holes);
