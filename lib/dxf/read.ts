@@ -482,8 +482,8 @@ export function polylinePieces(verts: Vtx[], closed: boolean): Piece[] {
   for (let i = 0; i < count; i++) {
     const v = verts[i];
     const u = verts[(i + 1) % n];
-    const chord = Math.hypot(u.x - v.x, u.y - v.y);
-    if (chord === 0) continue;
+    // Repeated vertices give no piece (compared, not measured: Math.hypot is slow here, and only zero matters).
+    if (u.x === v.x && u.y === v.y) continue;
     let w0 = v.sw;
     let w1 = v.ew;
     if (w0 === 0 && w1 === 0) w0 = w1 = null;

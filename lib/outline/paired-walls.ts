@@ -593,66 +593,78 @@ function tracePaths(st: StretchList, joints: Joints, minR: number): CentrelinePa
   const paths: CentrelinePath[] = [];
   const arms = new ArmCache(joints, st, minR);
   const frame = new Float64Array(4);
-  // Every path's points in one pair of growing columns; each path is a view of its run (no array per point).
-  let XY = new Float64Array(1024), R = new Float64Array(512);
-  let n = 0, pathStart = 0;
-  const push = (x: number, y: number, r: number) => {
-    if (n > pathStart && XY[2 * n - 2] === x && XY[2 * n - 1] === y) return;
-    if (n === R.length) {
-      XY = grownCopy(XY, 4 * n);
-      R = grownCopy(R, 2 * n);
-    }
+  // Every path's points in one pair of growing columns (room for a few points per stretch end to begin with);
+  // each path is a view of its run (no array per point).
+  let XY = new Float64Array(16 * st.n + 16), R = new Float64Array(8 * st.n + 8);
+  let n = 0;
+  const room = (k: number) => {
+    if (n + k <= R.length) return;
+    const c = Math.max(2 * R.length, n + k);
+    XY = grownCopy(XY, 2 * c);
+    R = grownCopy(R, c);
+  };
+  const put = (x: number, y: number, r: number) => {
     XY[2 * n] = x;
     XY[2 * n + 1] = y;
     R[n++] = r;
   };
+  /** A point unless it repeats the path's last one (a flat dead end's wall is its stretch's end). */
+  const putNew = (x: number, y: number, r: number, pathStart: number) => {
+    if (n > pathStart && XY[2 * n - 2] === x && XY[2 * n - 1] === y) return;
+    put(x, y, r);
+  };
   const runs: number[] = [];
-  /** From stretch end x's centre into its joint's centre (or the reverse, inward: from the joint's centre). */
-  const throughJoint = (x: number, inward: boolean) => {
+  /**
+   * From stretch end x's centre into its joint's centre (or the reverse, inward: from the joint's centre, leaving
+   * it out when the path already ends there, at a bend).
+   */
+  const throughJoint = (x: number, inward: boolean, pathStart: number) => {
     const g = joints.of[x];
     const r = st.r[x >> 1];
     st.endFrameInto(x, frame);
     const cx = frame[0], cy = frame[1];
     const px = joints.x[g], py = joints.y[g];
+    room(3);
     if (joints.degree(x) === 1) {
       // A dead end keeps the channel's width out to its end wall (as the Voronoi reader's dead ends do).
-      if (inward) push(px, py, r);
-      push(cx, cy, r);
-      if (!inward) push(px, py, r);
+      if (inward) put(px, py, r);
+      putNew(cx, cy, r, pathStart);
+      if (!inward) putNew(px, py, r, pathStart);
       return;
     }
     const arm = arms.get(g, x, frame);
-    const n = arm.length / 3;
-    for (let k = 0; k < n; k++) {
-      const q = inward ? n - 1 - k : k;
-      push(px + arm[3 * q], py + arm[3 * q + 1], arm[3 * q + 2]);
-    }
+    const m = arm.length / 3;
+    room(m);
+    if (inward) for (let q = n > pathStart ? m - 2 : m - 1; q >= 0; q--) put(px + arm[3 * q], py + arm[3 * q + 1], arm[3 * q + 2]);
+    else for (let q = 0; q < m; q++) put(px + arm[3 * q], py + arm[3 * q + 1], arm[3 * q + 2]);
   };
+  /** Joint centres of the bends passed on the path being walked, x y pairs (reused from path to path). */
+  const bends: number[] = [];
   const walk = (startEnd: number): CentrelinePath => {
-    pathStart = n;
-    /** Joint centres of the bends passed, for the bend radius. */
-    const bends: number[] = [];
+    const pathStart = n;
+    let nb = 0;
     let rMax = 0;
     let x = startEnd;
-    throughJoint(x, true);
+    throughJoint(x, true, pathStart);
     for (;;) {
       const s = x >> 1;
       used[s] = 1;
       rMax = Math.max(rMax, st.r[s]);
       const out = x ^ 1;
-      throughJoint(out, false);
+      throughJoint(out, false, pathStart);
       if (joints.degree(out) !== 2) break;
       const g = joints.of[out];
-      bends.push(joints.x[g], joints.y[g]);
+      bends[nb++] = joints.x[g];
+      bends[nb++] = joints.y[g];
       const next = joints.other(out);
       if (used[next >> 1]) break;
-      throughJoint(next, true);
+      throughJoint(next, true, pathStart);
       x = next;
     }
     // A run of bends (a drawn arc between facing walls) has the radius of three consecutive joint centres; a lone
     // sharp corner has none, as a centreline polyline's vertex has none.
     let bendRadius: number | null = null;
-    for (let k = 2; 2 * k + 1 < bends.length; k++) {
+    for (let k = 2; 2 * k + 1 < nb; k++) {
       const R = circumradius(bends[2 * k - 4], bends[2 * k - 3], bends[2 * k - 2], bends[2 * k - 1], bends[2 * k], bends[2 * k + 1]);
       if (R < 1000 * 2 * rMax && (bendRadius === null || R < bendRadius)) bendRadius = R;
     }
@@ -742,6 +754,8 @@ const ARM_SAMPLES = 64;
  * width, as the Voronoi reader's paths); x y r triples. Worked out once per joint shape (ArmCache).
  */
 function profileArm(w: Float64Array, m: number, cx: number, cy: number, r: number): Float64Array {
+  // A stretch ending on its joint's centre (a wall split by a vertex) has no arm: the one point.
+  if (cx === 0 && cy === 0) return Float64Array.of(0, 0, r);
   const n = ARM_SAMPLES + 1;
   const rs = new Float64Array(n);
   for (let k = 0; k < n; k++) {

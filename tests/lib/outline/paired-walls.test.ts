@@ -54,6 +54,18 @@ function mitred(line: [number, number][], h: number): Ring {
 }
 
 describe("closed forms read from paired walls", () => {
+  it("a straight channel whose walls carry a collinear vertex at one place: one path, 1000 long, no point twice", () => {
+    // Both walls split at x = 400: two stretches end to end, their ends on the joint's centre (an arm of no length).
+    const ring: Ring = [[0, -25], [400, -25], [1000, -25], [1000, 25], [400, 25], [0, 25]];
+    const axis = extractMedialAxis([ring]);
+    expect(axis.method).toBe("paired walls");
+    expect(axis.paths).toHaveLength(1);
+    const pts = pointsOf(axis.paths[0]);
+    expect(rel(lengthOf(axis.paths[0]), 1000)).toBeLessThan(1e-12);
+    for (let i = 1; i < pts.length; i++) expect(near(pts[i], pts[i - 1], 0)).toBe(false);
+    for (const r of axis.paths[0].radii) expect(r).toBeCloseTo(25, 12);
+  });
+
   it("an L bend from 50 to 100 wide: one path through the corner, the centreline's 2000 long, each arm its width", () => {
     // Centreline (0,0) → (1000,0) → (1000,1000); flat ends. Widths 50 along the first arm, 100 along the second.
     const ring: Ring = [[0, -25], [1050, -25], [1050, 1000], [950, 1000], [950, 25], [0, 25]];
