@@ -55,10 +55,8 @@ function layoutError(code: string, message: string, plan?: LayerPlan): LayoutErr
 function widthsInto(store: PieceStore, i: number, layers: ResolvedLayer[], mpu: number, out: Float64Array, at: number): void {
   const layer = layers[store.layer[i]];
   const lw = layer.widthM;
-  const d0 = store.drawnW0(i);
-  const d1 = store.drawnW1(i);
-  const w0 = d0 === null ? lw : d0 * mpu;
-  const w1 = d1 === null ? lw : d1 * mpu;
+  const w0 = store.hasDrawnW0(i) ? store.w0[i] * mpu : lw;
+  const w1 = store.hasDrawnW1(i) ? store.w1[i] * mpu : lw;
   if (w0 === null || w1 === null) {
     throw new LayoutError(
       "width_missing",

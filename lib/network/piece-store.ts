@@ -315,6 +315,15 @@ export class PieceStore {
     return this.flags[i] & W0_NULL ? null : this.w0[i];
   }
 
+  /** Row i has a drawn width at its start (w0[i] holds it); a boolean, where drawnW0's number | null would be boxed. */
+  hasDrawnW0(i: number): boolean {
+    return (this.flags[i] & W0_NULL) === 0;
+  }
+
+  hasDrawnW1(i: number): boolean {
+    return (this.flags[i] & W1_NULL) === 0;
+  }
+
   drawnW1(i: number): number | null {
     return this.flags[i] & W1_NULL ? null : this.w1[i];
   }

@@ -7,6 +7,7 @@ import { samplePoints, startOf } from "../network/geometry";
 import { extractMedialAxis, type MedialAxisResult } from "./medial-axis";
 import { circumradius, type Ring } from "./region";
 import { douglasPeucker } from "./simplify";
+import { grownCopy } from "../typed-arrays";
 
 /** Sides of the polygon standing in for a circle drawn on a channel layer (common practice: chord sag below 0.1 % of the radius). */
 const CIRCLE_SIDES = 96;
@@ -70,13 +71,15 @@ export function ringsOf(shapes: (PathEntity | CircleEntity)[]): Ring[] {
 export function readOutlineLayer(rings: Ring[], stepUnits?: number): OutlineLayerResult {
   const axis = extractMedialAxis(rings, stepUnits);
   const nPaths = axis.paths.length;
-  // Columns sized once: a path of m points gives at most m − 1 pieces (no object per piece or per profile).
+  // Typed columns, no object per piece or per profile: the profiles sized once, the pieces (most paths are one or
+  // two) grown as needed.
   let total = 0;
   for (const path of axis.paths) total += path.radii.length;
   const profileS = new Float64Array(total), profileW = new Float64Array(total);
   const profileStart = new Int32Array(nPaths + 1);
-  const lines = new Float64Array(4 * total), curveRadii = new Float64Array(total);
-  const pieceProfile = new Int32Array(total), pieceS = new Float64Array(2 * total);
+  let cap = 2 * nPaths + 16;
+  let lines = new Float64Array(4 * cap), curveRadii = new Float64Array(cap);
+  let pieceProfile = new Int32Array(cap), pieceS = new Float64Array(2 * cap);
   const keep: number[] = [];
   const scratch = { keep: new Uint8Array(64), stack: [] as number[] };
   let at = 0, count = 0;
@@ -94,6 +97,13 @@ export function readOutlineLayer(rings: Ring[], stepUnits?: number): OutlineLaye
       const i = keep[q], j = keep[q + 1];
       const x0 = xy[2 * i], y0 = xy[2 * i + 1], x1 = xy[2 * j], y1 = xy[2 * j + 1];
       if (x0 === x1 && y0 === y1) continue;
+      if (count === cap) {
+        cap *= 2;
+        lines = grownCopy(lines, 4 * cap);
+        curveRadii = grownCopy(curveRadii, cap);
+        pieceProfile = grownCopy(pieceProfile, cap);
+        pieceS = grownCopy(pieceS, 2 * cap);
+      }
       lines[4 * count] = x0;
       lines[4 * count + 1] = y0;
       lines[4 * count + 2] = x1;
