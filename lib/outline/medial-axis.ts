@@ -34,12 +34,22 @@ export const WALL_SPACING_WIDTHS = 2;
 export const WIDTH_TOLERANCE = 0.005;
 
 export interface CentrelinePath {
-  /** Points along the centreline, x y interleaved, drawing units (flat: 20k+ [x, y] pairs were mostly GC). */
+  /**
+   * Points along the centreline, x y interleaved, drawing units: this path's are points start .. end − 1 (flat,
+   * and the buffer may hold every path of the result: 20k+ [x, y] pairs, or a view per path, were mostly GC).
+   */
   xy: Float64Array;
-  /** Local half-width at each point (distance to the nearest wall), drawing units. */
+  /** Local half-width at each point (distance to the nearest wall), drawing units; indexed as the points. */
   radii: Float64Array;
+  start: number;
+  end: number;
   /** Smallest bend radius where the reader knows it (null: no bend), drawing units; else found from the points. */
   bendRadius?: number | null;
+}
+
+/** A path's own points and half-widths as arrays of their own length (views into its buffers). */
+export function pathArrays(p: CentrelinePath): { xy: Float64Array; radii: Float64Array } {
+  return { xy: p.xy.subarray(2 * p.start, 2 * p.end), radii: p.radii.subarray(p.start, p.end) };
 }
 
 /** A path as the Voronoi reader builds and extends it, before it is handed out flat. */
@@ -55,7 +65,7 @@ function flatPath(p: TuplePath): CentrelinePath {
     xy[2 * i] = x;
     xy[2 * i + 1] = y;
   });
-  return { xy, radii: Float64Array.from(p.radii) };
+  return { xy, radii: Float64Array.from(p.radii), start: 0, end: p.radii.length };
 }
 
 export interface MedialAxisResult {

@@ -594,7 +594,7 @@ function tracePaths(st: StretchList, joints: Joints, minR: number): CentrelinePa
   const arms = new ArmCache(joints, st, minR);
   const frame = new Float64Array(4);
   // Every path's points in one pair of growing columns (room for a few points per stretch end to begin with);
-  // each path is a view of its run (no array per point).
+  // each path is its run of them (no array per point, no view per path).
   let XY = new Float64Array(16 * st.n + 16), R = new Float64Array(8 * st.n + 8);
   let n = 0;
   const room = (k: number) => {
@@ -613,7 +613,6 @@ function tracePaths(st: StretchList, joints: Joints, minR: number): CentrelinePa
     if (n > pathStart && XY[2 * n - 2] === x && XY[2 * n - 1] === y) return;
     put(x, y, r);
   };
-  const runs: number[] = [];
   /**
    * From stretch end x's centre into its joint's centre (or the reverse, inward: from the joint's centre, leaving
    * it out when the path already ends there, at a bend).
@@ -668,16 +667,15 @@ function tracePaths(st: StretchList, joints: Joints, minR: number): CentrelinePa
       const R = circumradius(bends[2 * k - 4], bends[2 * k - 3], bends[2 * k - 2], bends[2 * k - 1], bends[2 * k], bends[2 * k + 1]);
       if (R < 1000 * 2 * rMax && (bendRadius === null || R < bendRadius)) bendRadius = R;
     }
-    runs.push(pathStart, n);
-    return { xy: XY, radii: R, bendRadius };
+    return { xy: XY, radii: R, start: pathStart, end: n, bendRadius };
   };
   for (let x = 0; x < 2 * st.n; x++) if (joints.degree(x) !== 2 && !used[x >> 1]) paths.push(walk(x));
   for (let s = 0; s < st.n; s++) if (!used[s]) paths.push(walk(2 * s));
-  // Views made last: the columns may have been reallocated while they grew.
-  paths.forEach((p, i) => {
-    p.xy = XY.subarray(2 * runs[2 * i], 2 * runs[2 * i + 1]);
-    p.radii = R.subarray(runs[2 * i], runs[2 * i + 1]);
-  });
+  // The buffers last: the columns may have been reallocated while they grew.
+  for (const p of paths) {
+    p.xy = XY;
+    p.radii = R;
+  }
   return paths;
 }
 

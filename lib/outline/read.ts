@@ -74,7 +74,7 @@ export function readOutlineLayer(rings: Ring[], stepUnits?: number): OutlineLaye
   // Typed columns, no object per piece or per profile: the profiles sized once, the pieces (most paths are one or
   // two) grown as needed.
   let total = 0;
-  for (const path of axis.paths) total += path.radii.length;
+  for (const path of axis.paths) total += path.end - path.start;
   const profileS = new Float64Array(total), profileW = new Float64Array(total);
   const profileStart = new Int32Array(nPaths + 1);
   let cap = 2 * nPaths + 16;
@@ -84,17 +84,18 @@ export function readOutlineLayer(rings: Ring[], stepUnits?: number): OutlineLaye
   const scratch = { keep: new Uint8Array(64), stack: [] as number[] };
   let at = 0, count = 0;
   for (let pi = 0; pi < nPaths; pi++) {
-    const { xy, radii, bendRadius: drawnBend } = axis.paths[pi];
-    const m = radii.length;
+    const { xy, radii, start: o, bendRadius: drawnBend } = axis.paths[pi];
+    const m = axis.paths[pi].end - o;
     profileStart[pi] = at;
     for (let i = 0; i < m; i++) {
-      profileS[at + i] = i === 0 ? 0 : profileS[at + i - 1] + Math.sqrt((xy[2 * i] - xy[2 * i - 2]) ** 2 + (xy[2 * i + 1] - xy[2 * i - 1]) ** 2);
-      profileW[at + i] = 2 * radii[i];
+      const k = o + i;
+      profileS[at + i] = i === 0 ? 0 : profileS[at + i - 1] + Math.sqrt((xy[2 * k] - xy[2 * k - 2]) ** 2 + (xy[2 * k + 1] - xy[2 * k - 1]) ** 2);
+      profileW[at + i] = 2 * radii[k];
     }
-    const bend = (drawnBend !== undefined ? drawnBend : bendRadius(xy, radii, profileS, at)) ?? NaN;
-    const nKeep = shapePoints(xy, m, axis.toleranceStepUnits / 8, keep, scratch);
+    const bend = (drawnBend !== undefined ? drawnBend : bendRadius(xy, radii, o, m, profileS, at)) ?? NaN;
+    const nKeep = shapePoints(xy, o, m, axis.toleranceStepUnits / 8, keep, scratch);
     for (let q = 0; q + 1 < nKeep; q++) {
-      const i = keep[q], j = keep[q + 1];
+      const i = o + keep[q], j = o + keep[q + 1];
       const x0 = xy[2 * i], y0 = xy[2 * i + 1], x1 = xy[2 * j], y1 = xy[2 * j + 1];
       if (x0 === x1 && y0 === y1) continue;
       if (count === cap) {
@@ -110,8 +111,8 @@ export function readOutlineLayer(rings: Ring[], stepUnits?: number): OutlineLaye
       lines[4 * count + 3] = y1;
       curveRadii[count] = bend;
       pieceProfile[count] = pi;
-      pieceS[2 * count] = profileS[at + i];
-      pieceS[2 * count + 1] = profileS[at + j];
+      pieceS[2 * count] = profileS[at + i - o];
+      pieceS[2 * count + 1] = profileS[at + j - o];
       count++;
     }
     at += m;
@@ -121,18 +122,19 @@ export function readOutlineLayer(rings: Ring[], stepUnits?: number): OutlineLaye
 }
 
 /**
- * Indices of the m points (x y interleaved) that keep a polyline's shape within tol (Douglas–Peucker,
- * simplify.ts), into out[0 .. the count returned): the width points between them stay in the path's profile.
+ * Indices (from o) of the m points o .. o + m − 1 (x y interleaved) that keep a polyline's shape within tol
+ * (Douglas–Peucker, simplify.ts), into out[0 .. the count returned): the width points between them stay in the
+ * path's profile.
  */
-function shapePoints(xy: Float64Array, m: number, tol: number, out: number[], scratch: { keep: Uint8Array; stack: number[] }): number {
+function shapePoints(xy: Float64Array, o: number, m: number, tol: number, out: number[], scratch: { keep: Uint8Array; stack: number[] }): number {
   if (scratch.keep.length < m) scratch.keep = new Uint8Array(2 * m);
   const keep = scratch.keep;
   douglasPeucker(m, keep, scratch.stack, (i, j) => {
-    const ax = xy[2 * i], ay = xy[2 * i + 1], bx = xy[2 * j], by = xy[2 * j + 1];
+    const ax = xy[2 * (o + i)], ay = xy[2 * (o + i) + 1], bx = xy[2 * (o + j)], by = xy[2 * (o + j) + 1];
     const l = Math.sqrt((bx - ax) ** 2 + (by - ay) ** 2);
     let best = -1, worst = tol;
     for (let k = i + 1; k < j; k++) {
-      const x = xy[2 * k], y = xy[2 * k + 1];
+      const x = xy[2 * (o + k)], y = xy[2 * (o + k) + 1];
       const d = l === 0 ? Math.sqrt((x - ax) ** 2 + (y - ay) ** 2) : Math.abs((bx - ax) * (y - ay) - (by - ay) * (x - ax)) / l;
       if (d > worst) {
         worst = d;
@@ -148,19 +150,19 @@ function shapePoints(xy: Float64Array, m: number, tol: number, out: number[], sc
 }
 
 /**
- * Smallest bend radius along a centreline (x y interleaved, positions along it in s from index at) from
- * consecutive point triples, leaving out the first and last two local radii of the path (where it turns into a
- * junction or ends); null when straight (radius above 1000 local widths).
+ * Smallest bend radius along a centreline (its m points from index o, x y interleaved, half-widths radii;
+ * positions along it in s from index at) from consecutive point triples, leaving out the first and last two local
+ * radii of the path (where it turns into a junction or ends); null when straight (radius above 1000 local widths).
  */
-function bendRadius(xy: Float64Array, radii: Float64Array, s: Float64Array, at: number): number | null {
-  const m = radii.length;
+function bendRadius(xy: Float64Array, radii: Float64Array, o: number, m: number, s: Float64Array, at: number): number | null {
   const total = s[at + m - 1];
   let min = Infinity;
   for (let i = 1; i + 1 < m; i++) {
-    const margin = 2 * radii[i];
+    const k = o + i;
+    const margin = 2 * radii[k];
     if (s[at + i - 1] < margin || total - s[at + i + 1] < margin) continue;
-    const r = circumradius(xy[2 * i - 2], xy[2 * i - 1], xy[2 * i], xy[2 * i + 1], xy[2 * i + 2], xy[2 * i + 3]);
-    if (r < 1000 * 2 * radii[i]) min = Math.min(min, r);
+    const r = circumradius(xy[2 * k - 2], xy[2 * k - 1], xy[2 * k], xy[2 * k + 1], xy[2 * k + 2], xy[2 * k + 3]);
+    if (r < 1000 * 2 * radii[k]) min = Math.min(min, r);
   }
   return Number.isFinite(min) ? min : null;
 }

@@ -5,7 +5,7 @@
  */
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { extractMedialAxis, type CentrelinePath } from "@/lib/outline/medial-axis";
+import { extractMedialAxis, pathArrays, type CentrelinePath } from "@/lib/outline/medial-axis";
 import { extractNetwork } from "@/lib/network/extract";
 import type { Ring } from "@/lib/outline/region";
 import { readDxf } from "@/lib/dxf/read";
@@ -16,8 +16,10 @@ const outDir = new URL("../../fixtures/outlines/", import.meta.url);
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 const outlines: Record<string, any> = JSON.parse(readFileSync(new URL("expected.json", outDir), "utf8")).fixtures;
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
-/** A path's points as [x, y] pairs (CentrelinePath keeps them flat). */
-const pointsOf = (p: CentrelinePath): [number, number][] => Array.from({ length: p.radii.length }, (_, i) => [p.xy[2 * i], p.xy[2 * i + 1]]);
+/** A path's points as [x, y] pairs (CentrelinePath keeps them flat, in buffers its result's paths may share). */
+const pointsOf = (p: CentrelinePath): [number, number][] => Array.from({ length: p.end - p.start }, (_, i) => [p.xy[2 * (p.start + i)], p.xy[2 * (p.start + i) + 1]]);
+/** A path's half-widths, one per point. */
+const radiiOf = (p: CentrelinePath) => pathArrays(p).radii;
 const lengthOf = (p: CentrelinePath) => pointsOf(p).reduce((s, q, i, pts) => (i === 0 ? 0 : s + Math.hypot(q[0] - pts[i - 1][0], q[1] - pts[i - 1][1])), 0);
 const rect = (x0: number, y0: number, x1: number, y1: number): Ring => [[x0, y0], [x1, y0], [x1, y1], [x0, y1]];
 
@@ -43,9 +45,9 @@ for (const pairedWalls of [true, false]) describe(`square grid of channels drawn
 
   it("half-widths: the drawn half-width along the channel, w/√2 at a crossing (distance to the four wall corners)", () => {
     for (const p of between) {
-      expect(rel(Math.min(...p.radii), w / 2)).toBeLessThan(0.005);
-      expect(rel(p.radii[0], w / Math.SQRT2)).toBeLessThan(0.005);
-      expect(rel(p.radii[p.radii.length - 1], w / Math.SQRT2)).toBeLessThan(0.005);
+      expect(rel(Math.min(...radiiOf(p)), w / 2)).toBeLessThan(0.005);
+      expect(rel(radiiOf(p)[0], w / Math.SQRT2)).toBeLessThan(0.005);
+      expect(rel(radiiOf(p)[radiiOf(p).length - 1], w / Math.SQRT2)).toBeLessThan(0.005);
     }
     expect(rel(axis.minWidthUnits, w)).toBeLessThan(0.005);
     expect(axis.regions).toBe(1);
@@ -60,7 +62,7 @@ for (const pairedWalls of [true, false]) describe(`square grid of channels drawn
     for (const p of between) {
       let area = 0;
       const pts = pointsOf(p);
-      for (let i = 1; i < pts.length; i++) area += (p.radii[i - 1] + p.radii[i]) * Math.hypot(pts[i][0] - pts[i - 1][0], pts[i][1] - pts[i - 1][1]);
+      for (let i = 1; i < pts.length; i++) area += (radiiOf(p)[i - 1] + radiiOf(p)[i]) * Math.hypot(pts[i][0] - pts[i - 1][0], pts[i][1] - pts[i - 1][1]);
       expect(rel(area / lengthOf(p), mean)).toBeLessThan(0.005);
     }
   });
@@ -74,7 +76,7 @@ describe("flat-ended channels", () => {
       expect(axis.paths).toHaveLength(2);
       for (const p of axis.paths) {
         expect(rel(lengthOf(p), 5000)).toBeLessThan(1e-3);
-        for (const r of p.radii) expect(rel(r, 50)).toBeLessThan(0.005);
+        for (const r of radiiOf(p)) expect(rel(r, 50)).toBeLessThan(0.005);
       }
       expect(axis.regions).toBe(2);
     });
@@ -96,7 +98,7 @@ describe("T junction from its outline", () => {
     const shapes = d.entities.filter((e): e is PathEntity | CircleEntity => e.layer === "FLOW" && e.kind !== "text");
     const voronoi = extractMedialAxis(ringsOf(shapes), undefined, { pairedWalls: false });
     expect(voronoi.method).toBe("medial axis");
-    const widestR = Math.max(...voronoi.paths.flatMap((p) => Array.from(p.radii)));
+    const widestR = Math.max(...voronoi.paths.flatMap((p) => Array.from(radiiOf(p))));
     expect(rel(widestR * 1e-6, (5 * 100e-6) / 8)).toBeLessThan(0.01);
   });
 });
