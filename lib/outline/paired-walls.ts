@@ -67,24 +67,35 @@ export function readPairedWalls(prep: OrientedRings, edges: Float64Array, ringEd
   const near: number[] = [];
 
   // 1. Pairs: the wall each edge's midpoint faces (a ray along its inward normal), kept when antiparallel.
-  // Pair keys a·nE + b (a < b): exact in a double up to 2^53, and a typed array sorts numbers without a comparator.
-  const keys = new Float64Array(nE);
-  let nKeys = 0;
+  const hit = new Int32Array(nE).fill(-1);
   for (let a = 0; a < nE; a++) {
     const px = (edges[4 * a] + edges[4 * a + 2]) / 2, py = (edges[4 * a + 1] + edges[4 * a + 3]) / 2;
     const nx = -uy[a], ny = ux[a];
     const b = firstHit(grid, edges, a, px, py, nx, ny, extent, near);
     if (b < 0) return null;
-    if (Math.abs(ux[a] * uy[b] - uy[a] * ux[b]) <= PARALLEL_SIN && ux[a] * ux[b] + uy[a] * uy[b] < 0) keys[nKeys++] = a < b ? a * nE + b : b * nE + a;
+    if (Math.abs(ux[a] * uy[b] - uy[a] * ux[b]) <= PARALLEL_SIN && ux[a] * ux[b] + uy[a] * uy[b] < 0) hit[a] = b;
   }
-  const sorted = keys.subarray(0, nKeys).sort();
+  // Each pair (lo, hi), lo < hi, found from either side, once, in order of lo then hi: grouped by lo with a
+  // counting sort (bucket), each group (one or two pairs as a rule) put in order by insertion.
+  const loStart = new Int32Array(nE + 1);
+  for (let a = 0; a < nE; a++) if (hit[a] >= 0) loStart[Math.min(a, hit[a]) + 1]++;
+  for (let e = 0; e < nE; e++) loStart[e + 1] += loStart[e];
+  const his = new Int32Array(loStart[nE]);
+  const fill = loStart.slice(0, nE);
+  for (let a = 0; a < nE; a++) if (hit[a] >= 0) his[fill[Math.min(a, hit[a])]++] = Math.max(a, hit[a]);
 
   // 2. Stretches: the overlap of each pair, kept where nothing else comes within the half-width of its midline.
-  const st = new StretchList(nKeys);
-  for (let k = 0; k < nKeys; k++) {
-    if (k > 0 && sorted[k] === sorted[k - 1]) continue;
-    const a = Math.floor(sorted[k] / nE), b = sorted[k] % nE;
-    st.tryPair(edges, ux, uy, len, a, b, grid, near);
+  const st = new StretchList(his.length);
+  for (let lo = 0; lo < nE; lo++) {
+    const k0 = loStart[lo], k1 = loStart[lo + 1];
+    for (let k = k0 + 1; k < k1; k++) {
+      for (let j = k; j > k0 && his[j - 1] > his[j]; j--) {
+        const t = his[j];
+        his[j] = his[j - 1];
+        his[j - 1] = t;
+      }
+    }
+    for (let k = k0; k < k1; k++) if (k === k0 || his[k] !== his[k - 1]) st.tryPair(edges, ux, uy, len, lo, his[k], grid, near);
   }
   const nS = st.n;
   if (nS === 0) return null;
@@ -689,7 +700,6 @@ class ArmCache {
   private readonly shapes: { key: Float64Array; walls: Float64Array; arms: { c: [number, number, number]; arm: Float64Array }[] }[] = [];
   private readonly shapeOf: Int32Array;
   private readonly walls = { buf: new Float64Array(64) };
-  private key = new Float64Array(64);
   private readonly q: number;
 
   /** @param minR smallest half-width: shapes are compared to 1e-7 of it. */
@@ -707,23 +717,27 @@ class ArmCache {
     if (this.shapeOf[g] >= 0) return this.shapeOf[g];
     const m = this.joints.wallsInto(g, this.st, frame, this.walls);
     const w = this.walls.buf;
-    // The key in a scratch array (small typed arrays are slow to allocate), copied only when a new shape is kept.
-    if (this.key.length < m) this.key = new Float64Array(2 * m);
-    const key = this.key, q = this.q;
+    // The walls quantised in place (the key; small typed arrays are slow to allocate, so a copy only for a new
+    // shape), hashed as they go.
+    const inv = 1 / this.q;
     let h = 2166136261;
     for (let k = 0; k < m; k++) {
-      key[k] = Math.round(w[k] / q);
-      h = Math.imul(h ^ (key[k] | 0), 16777619);
+      const v = Math.round(w[k] * inv);
+      w[k] = v;
+      h = Math.imul(h ^ (v | 0), 16777619);
     }
     const list = this.byHash.get(h) ?? this.byHash.set(h, []).get(h)!;
-    for (const id of list) {
-      const e = this.shapes[id].key;
+    for (let t = 0; t < list.length; t++) {
+      const e = this.shapes[list[t]].key;
       if (e.length !== m) continue;
-      let same = true;
-      for (let k = 0; k < m && same; k++) same = e[k] === key[k];
-      if (same) return (this.shapeOf[g] = id);
+      let k = 0;
+      while (k < m && e[k] === w[k]) k++;
+      if (k === m) return (this.shapeOf[g] = list[t]);
     }
-    this.shapes.push({ key: key.slice(0, m), walls: w.slice(0, m), arms: [] });
+    // A new shape (a handful per mask): its key, and its walls exact (read again, the buffer now holds the key).
+    const key = w.slice(0, m);
+    this.joints.wallsInto(g, this.st, frame, this.walls);
+    this.shapes.push({ key, walls: this.walls.buf.slice(0, m), arms: [] });
     list.push(this.shapes.length - 1);
     return (this.shapeOf[g] = this.shapes.length - 1);
   }
