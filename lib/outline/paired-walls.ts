@@ -700,6 +700,7 @@ class ArmCache {
   private readonly shapes: { key: Float64Array; walls: Float64Array; arms: { c: [number, number, number]; arm: Float64Array }[] }[] = [];
   private readonly shapeOf: Int32Array;
   private readonly walls = { buf: new Float64Array(64) };
+  private key = new Float64Array(64);
   private readonly q: number;
 
   /** @param minR smallest half-width: shapes are compared to 1e-7 of it. */
@@ -715,17 +716,11 @@ class ArmCache {
   /** The shape of joint g: found by its walls relative to its centre, or added. */
   private shape(g: number, frame: Float64Array): number {
     if (this.shapeOf[g] >= 0) return this.shapeOf[g];
-    const m = this.joints.wallsInto(g, this.st, frame, this.walls);
-    const w = this.walls.buf;
-    // The walls quantised in place (the key; small typed arrays are slow to allocate, so a copy only for a new
-    // shape), hashed as they go.
-    const inv = 1 / this.q;
+    const m = this.keyInto(g);
+    const w = this.key;
     let h = 2166136261;
-    for (let k = 0; k < m; k++) {
-      const v = Math.round(w[k] * inv);
-      w[k] = v;
-      h = Math.imul(h ^ (v | 0), 16777619);
-    }
+    for (let k = 0; k < m; k++) h = Math.imul(h ^ (w[k] | 0), 16777619);
+    h &= 0x3fffffff; // a small integer key for the map
     const list = this.byHash.get(h) ?? this.byHash.set(h, []).get(h)!;
     for (let t = 0; t < list.length; t++) {
       const e = this.shapes[list[t]].key;
@@ -734,12 +729,47 @@ class ArmCache {
       while (k < m && e[k] === w[k]) k++;
       if (k === m) return (this.shapeOf[g] = list[t]);
     }
-    // A new shape (a handful per mask): its key, and its walls exact (read again, the buffer now holds the key).
-    const key = w.slice(0, m);
-    this.joints.wallsInto(g, this.st, frame, this.walls);
-    this.shapes.push({ key, walls: this.walls.buf.slice(0, m), arms: [] });
+    // A new shape (a handful per mask): its key, and its walls exact.
+    const n = this.joints.wallsInto(g, this.st, frame, this.walls);
+    this.shapes.push({ key: w.slice(0, m), walls: this.walls.buf.slice(0, n), arms: [] });
     list.push(this.shapes.length - 1);
     return (this.shapeOf[g] = this.shapes.length - 1);
+  }
+
+  /**
+   * Joint g's shape key into this.key (grown as needed; its length returned): what its walls are made from, relative
+   * to its centre and quantised to q: each gap's point count and points, each end's centre, direction, half-width and
+   * how far back its walls reach (as wallsInto puts them). Equal keys, equal walls (within q).
+   */
+  private keyInto(g: number): number {
+    const { joints, st } = this;
+    const { gapStart, gapPts } = joints;
+    const px = joints.x[g], py = joints.y[g], inv = 1 / this.q;
+    let need = 0;
+    for (let t = joints.gapFrom[g]; t < joints.gapFrom[g + 1]; t++) need += 1 + gapStart[joints.gaps[t] + 1] - gapStart[joints.gaps[t]];
+    need += 6 * (joints.start[g + 1] - joints.start[g]);
+    if (this.key.length < need) this.key = new Float64Array(2 * need);
+    const w = this.key;
+    let m = 0;
+    for (let t = joints.gapFrom[g]; t < joints.gapFrom[g + 1]; t++) {
+      const gp = joints.gaps[t];
+      w[m++] = gapStart[gp + 1] - gapStart[gp];
+      for (let k = gapStart[gp]; k < gapStart[gp + 1]; k += 2) {
+        w[m++] = Math.round((gapPts[k] - px) * inv);
+        w[m++] = Math.round((gapPts[k + 1] - py) * inv);
+      }
+    }
+    for (let k = joints.start[g]; k < joints.start[g + 1]; k++) {
+      const x = joints.ends[k];
+      const s = x >> 1, r = st.r[s], one = x & 1;
+      w[m++] = Math.round(((one ? st.cx1[s] : st.cx0[s]) - px) * inv);
+      w[m++] = Math.round(((one ? st.cy1[s] : st.cy0[s]) - py) * inv);
+      w[m++] = Math.round((one ? st.dx[s] : -st.dx[s]) * 1e9);
+      w[m++] = Math.round((one ? st.dy[s] : -st.dy[s]) * 1e9);
+      w[m++] = Math.round(r * inv);
+      w[m++] = Math.round(Math.min(JOINT_REACH * r, st.length(s)) * inv);
+    }
+    return m;
   }
 
   /** The profile from end x of a stretch into its joint g. */

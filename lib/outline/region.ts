@@ -88,15 +88,17 @@ export function nestingDepths(clean: Ring[]): number[] {
   for (const i of order) {
     const x0 = box[4 * i], y0 = box[4 * i + 1], x1 = box[4 * i + 2], y1 = box[4 * i + 3];
     let kept = 0;
-    for (const j of open) if (box[4 * j + 2] >= x0) open[kept++] = j;
+    for (let q = 0; q < open.length; q++) if (box[4 * open[q] + 2] >= x0) open[kept++] = open[q];
     open.length = kept;
     const r = clean[i];
-    for (const j of open) {
+    for (let q = 0; q < kept; q++) {
+      const j = open[q];
       if (y0 < box[4 * j + 1] || x1 > box[4 * j + 2] || y1 > box[4 * j + 3]) continue;
       if (spreadInside(r, clean[j])) depth[i]++;
     }
     // Rings with the same left edge may contain each other either way round: check the earlier ones against it.
-    for (const j of open) {
+    for (let q = 0; q < kept; q++) {
+      const j = open[q];
       if (box[4 * j] !== x0) continue;
       const bj = 4 * j;
       if (box[bj + 1] < y0 || box[bj + 2] > x1 || box[bj + 3] > y1) continue;
@@ -433,10 +435,15 @@ export class WallGrid {
       const k0 = this.start[c], k1 = this.start[c + 1];
       for (let k = k0; k < k1; k++) {
         const a = this.list[k];
+        const ax0 = S[4 * a], ay0 = S[4 * a + 1], ax1 = S[4 * a + 2], ay1 = S[4 * a + 3];
+        const loX = Math.min(ax0, ax1), hiX = Math.max(ax0, ax1), loY = Math.min(ay0, ay1), hiY = Math.max(ay0, ay1);
         for (let m = k + 1; m < k1; m++) {
           const b = this.list[m];
+          const bx0 = S[4 * b], by0 = S[4 * b + 1], bx1 = S[4 * b + 2], by1 = S[4 * b + 3];
+          // Boxes apart: the segments cannot meet (most pairs in a cell, tested in four comparisons).
+          if (Math.max(bx0, bx1) < loX || Math.min(bx0, bx1) > hiX || Math.max(by0, by1) < loY || Math.min(by0, by1) > hiY) continue;
           if (skip(a, b)) continue;
-          if (segmentsMeet(S[4 * a], S[4 * a + 1], S[4 * a + 2], S[4 * a + 3], S[4 * b], S[4 * b + 1], S[4 * b + 2], S[4 * b + 3])) return true;
+          if (segmentsMeet(ax0, ay0, ax1, ay1, bx0, by0, bx1, by1)) return true;
         }
       }
     }
