@@ -631,6 +631,8 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       outlines.delete(l.name);
       const li = indexOfLayer(layer);
       const ti = indexOfType(mask.type);
+      works.reserve(works.n + read.count);
+      works.profiles.reserve(read.profileS.length);
       const ids = new Int32Array(read.axis.paths.length);
       for (let p = 0; p < ids.length; p++) ids[p] = works.profiles.add(read.profileS, read.profileW, read.profileStart[p], read.profileStart[p + 1]);
       const { lines, curveRadii, pieceProfile, pieceS } = read;

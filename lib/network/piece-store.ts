@@ -19,6 +19,15 @@ export class WidthProfiles {
   /** Profile id's points are S[off[id]] .. S[off[id + 1] - 1]. */
   private readonly off: number[] = [0];
 
+  /** Make room for `points` more profile points at once. */
+  reserve(points: number): void {
+    const need = this.off[this.off.length - 1] + points;
+    if (need > this.S.length) {
+      this.S = grownCopy(this.S, need);
+      this.W = grownCopy(this.W, need);
+    }
+  }
+
   /** Register a profile (copied): positions s and widths w from index `from` (default 0) up to `to` (default all); returns its id. */
   add(s: ArrayLike<number>, w: ArrayLike<number>, from = 0, to = s.length): number {
     const at = this.off[this.off.length - 1], n = to - from;
@@ -141,8 +150,13 @@ export class PieceStore {
     this.flags = new Uint8Array(c);
   }
 
-  private grow(): void {
-    const c = this.kind.length * 2;
+  /** Make room for at least `capacity` rows at once (an outline layer's pieces come all together). */
+  reserve(capacity: number): void {
+    if (capacity > this.kind.length) this.grow(capacity);
+  }
+
+  private grow(atLeast = 0): void {
+    const c = Math.max(this.kind.length * 2, atLeast);
     this.kind = grownCopy(this.kind, c);
     this.g0 = grownCopy(this.g0, c);
     this.g1 = grownCopy(this.g1, c);
