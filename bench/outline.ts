@@ -4,8 +4,11 @@
  * drawn once as centreline LINEs and once as its filled mask (one outer
  * square with (n−1)² square holes), both through extractNetwork. Prints both
  * times, the ratio (target under 3×, issue 9) and the segment counts.
- * Printed, never asserted: the cold first run, the median of the next 15, and the
- * median of 15 after 15 more (JIT warmed). Export: run().
+ * Printed, never asserted: the cold first run, the median of the next 15, and,
+ * after 15 more (JIT warmed), the medians of 31 and the median of their 31
+ * paired ratios (each outline run over the centreline run just before it: on
+ * this shared machine the speed drifts between runs, and a pair sees one
+ * state). Export: run().
  */
 import { readDxf } from "../lib/dxf/read";
 import type { CircleEntity, PathEntity } from "../lib/dxf/types";
@@ -55,6 +58,8 @@ export function gridOutline(n: number): string {
 
 /** Runs per median: on this shared 2-core machine medians of 5 swung the ratio by half (15 as in bench/geometry.ts). */
 const RUNS = 15;
+/** Runs per median once warm: medians of 15 still swung the ratio by ±20 % from one bench run to the next. */
+const WARM_RUNS = 31;
 
 function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);
@@ -82,26 +87,28 @@ export async function run(): Promise<void> {
   const alternate = (runs: number) => {
     const lineMs: number[] = [];
     const maskMs: number[] = [];
+    const pairs: number[] = [];
     for (let k = 0; k < runs; k++) {
       const a = time(lineText, lineConditions);
       const b = time(maskText, maskConditions);
       lineMs.push(a.ms);
       maskMs.push(b.ms);
+      pairs.push(b.ms / a.ms);
       lineSegs = a.net.segments.length;
       maskSegs = b.net.segments.length;
       note = b.net.warnings.find((w) => w.code === "outline_read")?.message ?? "";
     }
-    return [median(lineMs), median(maskMs)];
+    return [median(lineMs), median(maskMs), median(pairs)];
   };
   const [l, m] = alternate(RUNS);
   alternate(RUNS);
-  const [lw, mw] = alternate(RUNS);
+  const [lw, mw, pw] = alternate(WARM_RUNS);
   console.log(`grid ${n} × ${n}: ${channels} channels; centreline DXF ${(lineText.length / 1048576).toFixed(2)} MiB, outline DXF ${(maskText.length / 1048576).toFixed(2)} MiB`);
   console.log(`first (cold) run: centreline ${first[0].toFixed(0)} ms, outline ${first[1].toFixed(0)} ms`);
   console.log(`centreline path : ${l.toFixed(0)} ms (median of ${RUNS}), ${lineSegs} segments`);
   console.log(`outline path    : ${m.toFixed(0)} ms (median of ${RUNS}), ${maskSegs} segments`);
   console.log(`ratio outline / centreline: ${(m / l).toFixed(2)}× (target < 3×)`);
-  console.log(`after ${RUNS} more runs each: centreline ${lw.toFixed(0)} ms, outline ${mw.toFixed(0)} ms (medians of ${RUNS}), ratio ${(mw / lw).toFixed(2)}×`);
+  console.log(`after ${RUNS} more runs each: centreline ${lw.toFixed(1)} ms, outline ${mw.toFixed(1)} ms (medians of ${WARM_RUNS}), ratio ${(mw / lw).toFixed(2)}×; median of the ${WARM_RUNS} paired ratios ${pw.toFixed(2)}×`);
   console.log(note);
 
   // The mask's medial axis alone, by each reader: the walls paired (what the outline path above used) and the
@@ -119,6 +126,6 @@ export async function run(): Promise<void> {
   };
   axisMs(true);
   axisMs(false);
-  const [pw, vo] = [axisMs(true), axisMs(false)];
-  console.log(`medial axis alone (median of ${RUNS}, warm): paired walls ${pw.toFixed(1)} ms, Voronoi of wall samples ${vo.toFixed(1)} ms (${(vo / pw).toFixed(1)}× the paired reading)`);
+  const [pa, vo] = [axisMs(true), axisMs(false)];
+  console.log(`medial axis alone (median of ${RUNS}, warm): paired walls ${pa.toFixed(1)} ms, Voronoi of wall samples ${vo.toFixed(1)} ms (${(vo / pa).toFixed(1)}× the paired reading)`);
 }
