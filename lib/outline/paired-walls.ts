@@ -194,7 +194,7 @@ export function readPairedWalls(prep: OrientedRings, edges: Float64Array, ringEd
         if (selfJoined[joints.ends[k]]) return null;
         rMax = Math.max(rMax, st.r[joints.ends[k] >> 1]);
       }
-      if (!meetingPoint(st, joints.ends.subarray(k0, k1), tol, frame)) return null;
+      if (!meetingPoint(st, joints.ends, k0, k1, tol, frame)) return null;
       px = frame[0];
       py = frame[1];
       joints.rMax[g] = rMax;
@@ -549,13 +549,14 @@ function wallIntervals(st: StretchList, nE: number): { order: Int32Array; iStart
 }
 
 /**
- * Least-squares meeting point of the ends' centrelines into out[0], out[1]; false where they do not meet at one
- * point ahead of every end (out is also the scratch frame).
+ * Least-squares meeting point of the centrelines of ends[k0 .. k1) into out[0], out[1]; false where they do not
+ * meet at one point ahead of every end (out is also the scratch frame).
  */
-function meetingPoint(st: StretchList, ends: Int32Array, tol: number, out: Float64Array): boolean {
+function meetingPoint(st: StretchList, ends: Int32Array, k0: number, k1: number, tol: number, out: Float64Array): boolean {
+  const n = k1 - k0;
   let sxx = 0, sxy = 0, syy = 0, bx = 0, by = 0;
-  for (const x of ends) {
-    st.endFrameInto(x, out);
+  for (let k = k0; k < k1; k++) {
+    st.endFrameInto(ends[k], out);
     const cx = out[0], cy = out[1], dx = out[2], dy = out[3];
     // (I − d dᵀ) p = (I − d dᵀ) c, summed over the ends.
     const m00 = 1 - dx * dx, m01 = -dx * dy, m11 = 1 - dy * dy;
@@ -567,23 +568,23 @@ function meetingPoint(st: StretchList, ends: Int32Array, tol: number, out: Float
   }
   const det = sxx * syy - sxy * sxy;
   let px: number, py: number;
-  if (det > 1e-6 * ends.length * ends.length) {
+  if (det > 1e-6 * n * n) {
     px = (syy * bx - sxy * by) / det;
     py = (sxx * by - sxy * bx) / det;
   } else {
     // All parallel: two ends facing each other on one line and of one width (a wall split by a vertex).
-    if (ends.length !== 2) return false;
-    const ra = st.r[ends[0] >> 1], rb = st.r[ends[1] >> 1];
+    if (n !== 2) return false;
+    const ra = st.r[ends[k0] >> 1], rb = st.r[ends[k0 + 1] >> 1];
     if (Math.abs(ra - rb) > PARALLEL_TOLERANCE * Math.max(ra, rb)) return false;
-    st.endFrameInto(ends[0], out);
+    st.endFrameInto(ends[k0], out);
     const ax = out[0], ay = out[1];
-    st.endFrameInto(ends[1], out);
+    st.endFrameInto(ends[k0 + 1], out);
     if (Math.sqrt((ax - out[0]) ** 2 + (ay - out[1]) ** 2) > tol) return false;
     px = (ax + out[0]) / 2;
     py = (ay + out[1]) / 2;
   }
-  for (const x of ends) {
-    st.endFrameInto(x, out);
+  for (let k = k0; k < k1; k++) {
+    st.endFrameInto(ends[k], out);
     const cx = out[0], cy = out[1], dx = out[2], dy = out[3];
     const off = Math.abs((px - cx) * dy - (py - cy) * dx);
     const ahead = (px - cx) * dx + (py - cy) * dy;
