@@ -15,8 +15,8 @@ import { parseQuantity } from "../units/quantity";
 import { arcFraction, bboxInto, bboxOf, circleCrossings, endOf, intersect, lineArcHits, pieceLength, pointAt, reversed, samplePoints, startOf, subPiece } from "./geometry";
 import { CellHash, joinNearPoints, StaticGrid } from "./grid";
 import { describeLayers, planLayers, type LayerPlan, type ResolvedLayer } from "./layers";
-import { readOutlineLayer, ringsOf } from "../outline/read";
-import type { Ring } from "../outline/region";
+import { flatRingsOf, readOutlineLayer } from "../outline/read";
+import { unflatten, type FlatRings } from "../outline/region";
 import type { ChannelNetwork, LayoutWarning, NetworkNode, NetworkPort, NetworkSegment, NodeKind } from "./types";
 import { UnionFind } from "../graph/union-find";
 import { PieceStore } from "./piece-store";
@@ -603,17 +603,17 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
   flushLines();
   // Mask outlines (issue 9), per layer: their rings, and the first shape's entity index and type (the pieces read
   // from them are attributed to it).
-  const outlines = new Map<string, { rings: Ring[]; shapes: number; src: number; type: string }>();
+  const outlines = new Map<string, { rings: FlatRings; shapes: number; src: number; type: string }>();
   for (const [name, list] of shapesByLayer) {
     const src = drawing.entities.indexOf(list[0]);
-    outlines.set(name, { rings: ringsOf(list), shapes: list.length, src, type: drawing.entities[src].type });
+    outlines.set(name, { rings: flatRingsOf(list), shapes: list.length, src, type: drawing.entities[src].type });
   }
   shapesByLayer.clear();
   // The drawing is extractNetwork's own (read there, never returned) and its entities are not needed past this point
   // (the store holds the channel pieces; ports, texts, outlines and mask rings are in their own lists): letting the
   // list go lets the entities and their piece objects be collected during the outline reads and the build.
   drawing.entities = [];
-  // The mask rings for drawing, kept flat until the network is assembled.
+  // The mask rings for drawing, kept flat (as read) until the network is assembled.
   const maskRings: { layer: string; flat: FlatRings }[] = [];
   for (const l of plan.summaries) {
     if (l.role !== "channel") continue;
@@ -627,7 +627,7 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       const layer = plan.byName.get(l.name)!;
       const { src } = mask;
       const read = readOutlineLayer(mask.rings);
-      maskRings.push({ layer: l.name, flat: flattenRings(mask.rings) });
+      maskRings.push({ layer: l.name, flat: mask.rings });
       outlines.delete(l.name);
       const li = indexOfLayer(layer);
       const ti = indexOfType(mask.type);
@@ -933,39 +933,8 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
     outline,
     bounds,
     mappingProposed: plan.mappingProposed,
-    ...(maskRings.length > 0 ? { masks: maskRings.map((m) => ({ layer: m.layer, ringsM: ringsInMetres(m.flat, mpu) })) } : {}),
+    ...(maskRings.length > 0 ? { masks: maskRings.map((m) => ({ layer: m.layer, ringsM: unflatten(m.flat, mpu) })) } : {}),
   };
-}
-
-/** Rings' points end to end (x y pairs); ring k's points are xy[2·start[k]] .. xy[2·start[k + 1]] (exclusive). */
-interface FlatRings {
-  xy: Float64Array;
-  start: Int32Array;
-}
-
-function flattenRings(rings: Ring[]): FlatRings {
-  const start = new Int32Array(rings.length + 1);
-  for (let k = 0; k < rings.length; k++) start[k + 1] = start[k] + rings[k].length;
-  const xy = new Float64Array(2 * start[rings.length]);
-  for (let k = 0, at = 0; k < rings.length; k++) {
-    const r = rings[k];
-    for (let i = 0; i < r.length; i++, at += 2) {
-      xy[at] = r[i][0];
-      xy[at + 1] = r[i][1];
-    }
-  }
-  return { xy, start };
-}
-
-/** Flat rings in drawing units as [x, y] rings in metres (the network's mask drawing). */
-function ringsInMetres(f: FlatRings, mpu: number): [number, number][][] {
-  const out: [number, number][][] = new Array(f.start.length - 1);
-  for (let k = 0; k + 1 < f.start.length; k++) {
-    const ring: [number, number][] = new Array(f.start[k + 1] - f.start[k]);
-    for (let i = f.start[k]; i < f.start[k + 1]; i++) ring[i - f.start[k]] = [f.xy[2 * i] * mpu, f.xy[2 * i + 1] * mpu];
-    out[k] = ring;
-  }
-  return out;
 }
 
 /**

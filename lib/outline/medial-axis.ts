@@ -16,7 +16,7 @@ import { Delaunay } from "d3-delaunay";
 import { grownCopy } from "../typed-arrays";
 import { readPairedWalls } from "./paired-walls";
 import { douglasPeucker } from "./simplify";
-import { orientRings, orientedArea, Region, WallGrid, type OrientedRings, type Ring } from "./region";
+import { flatten, orientFlat, orientedArea, Region, unflatten, WallGrid, type FlatRings, type OrientedFlat, type OrientedRings, type Ring } from "./region";
 
 /** Samples per smallest width (common practice for Voronoi medial axes: a few samples across the narrowest gap). */
 export const SAMPLES_PER_WIDTH = 6;
@@ -101,14 +101,19 @@ export interface MedialAxisResult {
  * @param options pairedWalls: false to skip the paired-wall reading and always sample (for comparisons).
  * @returns centreline paths split at junctions and dead ends, with half-widths, and the tolerances used.
  */
-export function extractMedialAxis(rings: Ring[], stepUnits?: number, options: { pairedWalls?: boolean } = {}): MedialAxisResult {
+export function extractMedialAxis(rings: Ring[] | FlatRings, stepUnits?: number, options: { pairedWalls?: boolean } = {}): MedialAxisResult {
   const notes: string[] = [];
+  const flat = Array.isArray(rings) ? flatten(rings) : rings;
+  // The drawn perimeter (rings dropped as degenerate included), for the first sampling step and its floor.
   let perimeter = 0;
-  for (const r of rings) for (let i = 0; i < r.length; i++) {
-    const a = r[i], b = r[(i + 1) % r.length];
-    perimeter += norm(b[0] - a[0], b[1] - a[1]);
+  for (let k = 0; k + 1 < flat.start.length; k++) {
+    const i0 = flat.start[k], i1 = flat.start[k + 1];
+    for (let e = i0; e < i1; e++) {
+      const nx = e + 1 === i1 ? i0 : e + 1;
+      perimeter += norm(flat.xy[2 * nx] - flat.xy[2 * e], flat.xy[2 * nx + 1] - flat.xy[2 * e + 1]);
+    }
   }
-  const prep = orientRings(rings);
+  const prep = orientFlat(flat);
   let step = stepUnits;
   if (step === undefined) {
     // First guess from the shapes' hydraulic-width-like ratio 2·area/perimeter (a thin band's width), refined below.
@@ -237,30 +242,28 @@ interface RingEdges {
   perimeter: number;
 }
 
-function edgesOf(rings: Ring[]): RingEdges {
-  let nE = 0;
-  const ringEdgeStart = new Int32Array(rings.length + 1);
-  rings.forEach((r, i) => {
-    ringEdgeStart[i] = nE;
-    nE += r.length;
-  });
-  ringEdgeStart[rings.length] = nE;
+/** The rings' edges, ring by ring (ring k's from its point k: edge e runs from point e to the next, wrapping). */
+function edgesOf(f: FlatRings): RingEdges {
+  const n = f.start.length - 1;
+  const nE = f.start[n];
   const edges = new Float64Array(4 * nE);
   const ringOfEdge = new Int32Array(nE);
-  let e = 0;
+  const xy = f.xy;
   let perimeter = 0;
-  rings.forEach((r, ri) => {
-    for (let i = 0; i < r.length; i++, e++) {
-      const a = r[i], b = r[(i + 1) % r.length];
-      perimeter += norm(b[0] - a[0], b[1] - a[1]);
-      edges[4 * e] = a[0];
-      edges[4 * e + 1] = a[1];
-      edges[4 * e + 2] = b[0];
-      edges[4 * e + 3] = b[1];
-      ringOfEdge[e] = ri;
+  for (let k = 0; k < n; k++) {
+    const i0 = f.start[k], i1 = f.start[k + 1];
+    for (let e = i0; e < i1; e++) {
+      const nx = e + 1 === i1 ? i0 : e + 1;
+      const ax = xy[2 * e], ay = xy[2 * e + 1], bx = xy[2 * nx], by = xy[2 * nx + 1];
+      perimeter += norm(bx - ax, by - ay);
+      edges[4 * e] = ax;
+      edges[4 * e + 1] = ay;
+      edges[4 * e + 2] = bx;
+      edges[4 * e + 3] = by;
+      ringOfEdge[e] = k;
     }
-  });
-  return { edges, ringEdgeStart, ringOfEdge, perimeter };
+  }
+  return { edges, ringEdgeStart: f.start, ringOfEdge, perimeter };
 }
 
 /** Distances from an edge's start at which it is sampled inside (0 < d < len): evenly, at most `spacing` apart. */
@@ -336,8 +339,11 @@ function sampleOverlapping(region: Region, ringEdgeStart: Int32Array, step: numb
 
 type Mode = "sparse" | "dense" | "overlapping";
 
-function medialAxisAt(prep: OrientedRings, step: number, tryPairedWalls = false): MedialAxisResult {
-  const ed = edgesOf(prep.rings);
+function medialAxisAt(flat: OrientedFlat, step: number, tryPairedWalls = false): MedialAxisResult {
+  const ed = edgesOf(flat);
+  // The Voronoi reader's sampling and inside tests take [x, y] rings (made only when it runs).
+  let tuples: OrientedRings | undefined;
+  const prepared = () => (tuples ??= { rings: unflatten(flat), depth: flat.depth });
   const { edges, ringEdgeStart, ringOfEdge } = ed;
   // Cells of about two smallest widths: a wall-distance query then looks at a few cells at most.
   const wallGrid = new WallGrid(edges, step * 2 * SAMPLES_PER_WIDTH);
@@ -351,19 +357,20 @@ function medialAxisAt(prep: OrientedRings, step: number, tryPairedWalls = false)
   });
   let regionCache: Region | undefined;
   // Cells about as many as edges: the region answers only a few inside tests per dead end here.
-  const region = (cell: number) => (regionCache ??= new Region([], cell, prep));
+  const region = (cell: number) => (regionCache ??= new Region([], cell, prepared()));
   if (overlapping) {
     const reg = region(step * 4);
     const { samples, walls } = sampleOverlapping(reg, ringEdgeStart, step);
-    return axisFromSamples(prep, step, step, samples, ed, new WallGrid(walls, step * 4), "overlapping", () => reg)!;
+    return axisFromSamples(prepared(), step, step, samples, ed, new WallGrid(walls, step * 4), "overlapping", () => reg)!;
   }
   if (tryPairedWalls) {
     // Straight channels between parallel walls are read exactly from the walls; anything else is sampled.
-    const paired = readPairedWalls(prep, edges, ringEdgeStart, wallGrid, { samplesPerWidth: SAMPLES_PER_WIDTH });
+    const paired = readPairedWalls(flat, edges, ringEdgeStart, wallGrid, { samplesPerWidth: SAMPLES_PER_WIDTH });
     if (paired) return paired;
   }
   const maxSpacing = WALL_SPACING_WIDTHS * SAMPLES_PER_WIDTH * step;
   const coarseCell = Math.max(step * 4, Math.sqrt(Math.max(1e-300, (wallGrid.width * wallGrid.height) / Math.max(1, edges.length / 4))));
+  const prep = prepared();
   const sparse = axisFromSamples(prep, step, maxSpacing, sampleWalls(prep, ringEdgeStart, maxSpacing, ed.perimeter), ed, wallGrid, "sparse", () => region(coarseCell));
   if (sparse) return sparse;
   const reg = region(step * 4);

@@ -15,7 +15,7 @@
  * geometry on the wall segments in a grid (region.ts WallGrid).
  */
 import { PRUNE_FACTOR, WIDTH_TOLERANCE, type CentrelinePath, type MedialAxisResult } from "./medial-axis";
-import { circumradius, segDist2, type OrientedRings, type WallGrid } from "./region";
+import { circumradius, segDist2, type WallGrid } from "./region";
 import { douglasPeucker } from "./simplify";
 import { grownCopy } from "../typed-arrays";
 
@@ -45,13 +45,14 @@ export interface PairedWallsOptions {
 
 /**
  * Read the filled area of non-touching rings as straight channels between parallel walls.
- * @param prep rings oriented with the filled side on the left (region.ts orientRings); no two may touch.
+ * @param prep the rings' containment depths (region.ts orientFlat: rings oriented with the filled side on the
+ *   left, no two touching, whose edges these are).
  * @param edges the rings' edges, x0 y0 x1 y1 each, ring by ring; ringEdgeStart[r] is ring r's first edge.
  * @param grid the same edges in a grid.
  * @returns the centreline paths (split at junctions and dead ends, half-widths along them), or null where the
  *   walls are not all explained by facing pairs; drawing units.
  */
-export function readPairedWalls(prep: OrientedRings, edges: Float64Array, ringEdgeStart: Int32Array, grid: WallGrid, options: PairedWallsOptions): MedialAxisResult | null {
+export function readPairedWalls(prep: { depth: number[] }, edges: Float64Array, ringEdgeStart: Int32Array, grid: WallGrid, options: PairedWallsOptions): MedialAxisResult | null {
   const nE = edges.length / 4;
   if (nE === 0) return null;
   const ux = new Float64Array(nE), uy = new Float64Array(nE), len = new Float64Array(nE);

@@ -5,7 +5,7 @@
 import type { CircleEntity, PathEntity } from "../dxf/types";
 import { samplePoints, startOf } from "../network/geometry";
 import { extractMedialAxis, type MedialAxisResult } from "./medial-axis";
-import { circumradius, type Ring } from "./region";
+import { circumradius, unflatten, type FlatRings, type Ring } from "./region";
 import { douglasPeucker } from "./simplify";
 import { grownCopy } from "../typed-arrays";
 
@@ -37,38 +37,50 @@ export interface OutlineLayerResult {
   axis: MedialAxisResult;
 }
 
-/** Rings of closed paths (arcs sampled every ≤ 5°) and circles, drawing units. */
-export function ringsOf(shapes: (PathEntity | CircleEntity)[]): Ring[] {
-  const rings: Ring[] = [];
+/** Rings of closed paths (arcs sampled every ≤ 5°) and circles, flat, drawing units. */
+export function flatRingsOf(shapes: (PathEntity | CircleEntity)[]): FlatRings {
+  let xy = new Float64Array(256);
+  const start: number[] = [0];
+  let n = 0;
+  const put = (x: number, y: number) => {
+    if (2 * n + 2 > xy.length) xy = grownCopy(xy, 2 * xy.length);
+    xy[2 * n] = x;
+    xy[2 * n + 1] = y;
+    n++;
+  };
   for (const s of shapes) {
     if (s.kind === "circle") {
-      const ring: Ring = [];
-      for (let k = 0; k < CIRCLE_SIDES; k++) ring.push([s.cx + s.r * Math.cos((2 * Math.PI * k) / CIRCLE_SIDES), s.cy + s.r * Math.sin((2 * Math.PI * k) / CIRCLE_SIDES)]);
-      rings.push(ring);
+      for (let k = 0; k < CIRCLE_SIDES; k++) put(s.cx + s.r * Math.cos((2 * Math.PI * k) / CIRCLE_SIDES), s.cy + s.r * Math.sin((2 * Math.PI * k) / CIRCLE_SIDES));
+      start.push(n);
       continue;
     }
     if (s.pieces.length === 0) continue;
+    const first = n;
     const st = startOf(s.pieces[0]);
-    const ring: Ring = [[st.x, st.y]];
+    put(st.x, st.y);
     for (const p of s.pieces) {
-      if (p.kind === "line") ring.push([p.x1, p.y1]);
-      else for (const q of samplePoints(p)) ring.push([q.x, q.y]);
+      if (p.kind === "line") put(p.x1, p.y1);
+      else for (const q of samplePoints(p)) put(q.x, q.y);
     }
-    // A closed path ends where it starts: the ring closes on its own (cleanRings would copy it to drop the point).
-    const last = ring[ring.length - 1];
-    if (ring.length > 1 && last[0] === st.x && last[1] === st.y) ring.pop();
-    rings.push(ring);
+    // A closed path ends where it starts: the ring closes on its own.
+    if (n - first > 1 && xy[2 * n - 2] === st.x && xy[2 * n - 1] === st.y) n--;
+    start.push(n);
   }
-  return rings;
+  return { xy: xy.subarray(0, 2 * n), start: Int32Array.from(start) };
+}
+
+/** The same rings as [x, y] pairs. */
+export function ringsOf(shapes: (PathEntity | CircleEntity)[]): Ring[] {
+  return unflatten(flatRingsOf(shapes));
 }
 
 /**
  * Read one layer's mask outlines as centreline pieces.
- * @param rings the rings of the layer's closed paths and circles (ringsOf), drawing units.
+ * @param rings the rings of the layer's closed paths and circles (flatRingsOf, or [x, y] rings), drawing units.
  * @param stepUnits optional sampling step (drawing units); by default derived from the smallest width.
  * @returns line pieces with widths and the medial axis result (tolerances, regions, holes).
  */
-export function readOutlineLayer(rings: Ring[], stepUnits?: number): OutlineLayerResult {
+export function readOutlineLayer(rings: Ring[] | FlatRings, stepUnits?: number): OutlineLayerResult {
   const axis = extractMedialAxis(rings, stepUnits);
   const nPaths = axis.paths.length;
   // Typed columns, no object per piece or per profile: the profiles sized once, the pieces (most paths are one or

@@ -12,73 +12,113 @@
 
 export type Ring = [number, number][];
 
+/**
+ * Rings end to end in one column: ring k's points are points start[k] .. start[k + 1] − 1 of xy (x y pairs),
+ * drawing units, closing point not repeated. The readers' own form: an [x, y] pair per point was garbage.
+ */
+export interface FlatRings {
+  xy: Float64Array;
+  start: Int32Array;
+}
+
+/** [x, y] rings as flat rings. */
+export function flatten(rings: Ring[]): FlatRings {
+  const start = new Int32Array(rings.length + 1);
+  for (let k = 0; k < rings.length; k++) start[k + 1] = start[k] + rings[k].length;
+  const xy = new Float64Array(2 * start[rings.length]);
+  for (let k = 0, at = 0; k < rings.length; k++) {
+    const r = rings[k];
+    for (let i = 0; i < r.length; i++, at += 2) {
+      xy[at] = r[i][0];
+      xy[at + 1] = r[i][1];
+    }
+  }
+  return { xy, start };
+}
+
+/** Flat rings as [x, y] rings, each coordinate times `scale`. */
+export function unflatten(f: FlatRings, scale = 1): Ring[] {
+  const out: Ring[] = new Array(f.start.length - 1);
+  for (let k = 0; k + 1 < f.start.length; k++) {
+    const ring: Ring = new Array(f.start[k + 1] - f.start[k]);
+    for (let i = f.start[k]; i < f.start[k + 1]; i++) ring[i - f.start[k]] = [f.xy[2 * i] * scale, f.xy[2 * i + 1] * scale];
+    out[k] = ring;
+  }
+  return out;
+}
+
 const orient = (ax: number, ay: number, bx: number, by: number, px: number, py: number) => (bx - ax) * (py - ay) - (by - ay) * (px - ax);
 
-/** Signed area of a ring (shoelace formula), positive when counter-clockwise. */
-export function signedArea(ring: Ring): number {
+/** Signed area of flat ring k (shoelace formula), positive when counter-clockwise. */
+function signedAreaOf(f: FlatRings, k: number): number {
+  const xy = f.xy, i0 = f.start[k], i1 = f.start[k + 1];
   let a = 0;
-  for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) a += ring[j][0] * ring[i][1] - ring[i][0] * ring[j][1];
+  for (let i = i0, j = i1 - 1; i < i1; j = i++) a += xy[2 * j] * xy[2 * i + 1] - xy[2 * i] * xy[2 * j + 1];
   return a / 2;
 }
 
-/** Even-odd point-in-ring test (ray casting), for ring-in-ring containment only. */
-function inRing(ring: Ring, x: number, y: number): boolean {
+/** Even-odd point-in-ring test (ray casting) on flat ring k, for ring-in-ring containment only. */
+function inRing(f: FlatRings, k: number, x: number, y: number): boolean {
+  const xy = f.xy, i0 = f.start[k], i1 = f.start[k + 1];
   let inside = false;
-  for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) {
-    // Indexed, not destructured: destructuring runs the iterator protocol in this hot loop.
-    const xi = ring[i][0], yi = ring[i][1];
-    const xj = ring[j][0], yj = ring[j][1];
+  for (let i = i0, j = i1 - 1; i < i1; j = i++) {
+    const xi = xy[2 * i], yi = xy[2 * i + 1], xj = xy[2 * j], yj = xy[2 * j + 1];
     if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
   }
   return inside;
 }
 
-function bboxOfRing(r: Ring): [number, number, number, number] {
-  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
-  for (let k = 0; k < r.length; k++) {
-    const x = r[k][0], y = r[k][1];
-    if (x < x0) x0 = x;
-    if (y < y0) y0 = y;
-    if (x > x1) x1 = x;
-    if (y > y1) y1 = y;
+/** Flat rings without repeated points (a repeated closing point included), zero-length edges or zero area. */
+function cleanFlat(f: FlatRings): FlatRings {
+  const n = f.start.length - 1;
+  const xy = new Float64Array(f.xy.length);
+  const start = new Int32Array(n + 1);
+  let m = 0, kept = 0;
+  for (let k = 0; k < n; k++) {
+    const first = m;
+    for (let i = f.start[k]; i < f.start[k + 1]; i++) {
+      const x = f.xy[2 * i], y = f.xy[2 * i + 1];
+      if (m > first && xy[2 * m - 2] === x && xy[2 * m - 1] === y) continue;
+      xy[2 * m] = x;
+      xy[2 * m + 1] = y;
+      m++;
+    }
+    while (m - first > 1 && xy[2 * first] === xy[2 * m - 2] && xy[2 * first + 1] === xy[2 * m - 1]) m--;
+    start[kept + 1] = m;
+    if (m - first >= 3 && Math.abs(signedAreaOf({ xy, start }, kept)) > 0) kept++;
+    else m = first;
   }
-  return [x0, y0, x1, y1];
+  return { xy: xy.subarray(0, 2 * m), start: start.subarray(0, kept + 1) };
 }
 
-/** Drop repeated closing points and zero-length edges. */
-function cleanRing(r: Ring): Ring {
-  // Most rings have nothing to drop: those are kept as they are (rings are never changed in place).
-  let clean = r.length > 0 && (r[0][0] !== r[r.length - 1][0] || r[0][1] !== r[r.length - 1][1]);
-  for (let i = 1; i < r.length && clean; i++) clean = r[i][0] !== r[i - 1][0] || r[i][1] !== r[i - 1][1];
-  if (clean) return r;
-  const out: Ring = [];
-  for (const p of r) {
-    const last = out.at(-1);
-    if (!last || last[0] !== p[0] || last[1] !== p[1]) out.push([p[0], p[1]]);
-  }
-  while (out.length > 1 && out[0][0] === out.at(-1)![0] && out[0][1] === out.at(-1)![1]) out.pop();
-  return out;
-}
-
-/** Rings without repeated points, zero-length edges or zero area. */
-export function cleanRings(rings: Ring[]): Ring[] {
-  return rings.map(cleanRing).filter((r) => r.length >= 3 && Math.abs(signedArea(r)) > 0);
-}
-
-/** Three spread vertices of ring r lie inside ring o. */
-function spreadInside(r: Ring, o: Ring): boolean {
-  const a = Math.floor(r.length / 3), b = Math.floor((2 * r.length) / 3);
-  return inRing(o, r[0][0], r[0][1]) && inRing(o, r[a][0], r[a][1]) && inRing(o, r[b][0], r[b][1]);
+/** Three spread vertices of flat ring r lie inside flat ring o. */
+function spreadInside(f: FlatRings, r: number, o: number): boolean {
+  const i0 = f.start[r], n = f.start[r + 1] - i0;
+  const a = i0 + Math.floor(n / 3), b = i0 + Math.floor((2 * n) / 3);
+  return inRing(f, o, f.xy[2 * i0], f.xy[2 * i0 + 1]) && inRing(f, o, f.xy[2 * a], f.xy[2 * a + 1]) && inRing(f, o, f.xy[2 * b], f.xy[2 * b + 1]);
 }
 
 /**
  * How many other rings contain each ring: even = outer boundary of filled area, odd = hole. A ring is nested
  * in another when its box lies inside the other's and three spread vertices are inside it.
  */
-export function nestingDepths(clean: Ring[]): number[] {
-  const n = clean.length;
+function nestingDepths(f: FlatRings): number[] {
+  const n = f.start.length - 1;
   const box = new Float64Array(4 * n);
-  clean.forEach((r, i) => box.set(bboxOfRing(r), 4 * i));
+  for (let k = 0; k < n; k++) {
+    let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+    for (let i = f.start[k]; i < f.start[k + 1]; i++) {
+      const x = f.xy[2 * i], y = f.xy[2 * i + 1];
+      if (x < x0) x0 = x;
+      if (y < y0) y0 = y;
+      if (x > x1) x1 = x;
+      if (y > y1) y1 = y;
+    }
+    box[4 * k] = x0;
+    box[4 * k + 1] = y0;
+    box[4 * k + 2] = x1;
+    box[4 * k + 3] = y1;
+  }
   // Rings sorted by box left edge: only rings starting further left can contain a ring. Within that, a ring's
   // container must also reach past its right edge, so each ring is checked only against the rings still "open"
   // at its left edge (boxes not yet ended), kept in a list pruned as the sweep moves right.
@@ -90,11 +130,10 @@ export function nestingDepths(clean: Ring[]): number[] {
     let kept = 0;
     for (let q = 0; q < open.length; q++) if (box[4 * open[q] + 2] >= x0) open[kept++] = open[q];
     open.length = kept;
-    const r = clean[i];
     for (let q = 0; q < kept; q++) {
       const j = open[q];
       if (y0 < box[4 * j + 1] || x1 > box[4 * j + 2] || y1 > box[4 * j + 3]) continue;
-      if (spreadInside(r, clean[j])) depth[i]++;
+      if (spreadInside(f, i, j)) depth[i]++;
     }
     // Rings with the same left edge may contain each other either way round: check the earlier ones against it.
     for (let q = 0; q < kept; q++) {
@@ -102,18 +141,47 @@ export function nestingDepths(clean: Ring[]): number[] {
       if (box[4 * j] !== x0) continue;
       const bj = 4 * j;
       if (box[bj + 1] < y0 || box[bj + 2] > x1 || box[bj + 3] > y1) continue;
-      if (spreadInside(clean[j], r)) depth[j]++;
+      if (spreadInside(f, j, i)) depth[j]++;
     }
     open.push(i);
   }
   return depth;
 }
 
+/** Flat rings cleaned and oriented so the filled side is on the left of every edge, with their containment depths. */
+export interface OrientedFlat extends FlatRings {
+  /** Containment depth of each ring: even = outer boundary of filled area, odd = hole. */
+  depth: number[];
+}
+
+/** Clean flat rings, find how deeply each is nested and orient each (reversed in place) so the filled side is on its left. */
+export function orientFlat(rings: FlatRings): OrientedFlat {
+  const clean = cleanFlat(rings);
+  const depth = nestingDepths(clean);
+  const xy = clean.xy;
+  for (let k = 0; k + 1 < clean.start.length; k++) {
+    if (signedAreaOf(clean, k) > 0 === (depth[k] % 2 === 0)) continue;
+    for (let i = clean.start[k], j = clean.start[k + 1] - 1; i < j; i++, j--) {
+      const x = xy[2 * i], y = xy[2 * i + 1];
+      xy[2 * i] = xy[2 * j];
+      xy[2 * i + 1] = xy[2 * j + 1];
+      xy[2 * j] = x;
+      xy[2 * j + 1] = y;
+    }
+  }
+  return { xy, start: clean.start, depth };
+}
+
+/** Filled area of oriented flat rings (each ring's signed area is positive for filled, negative for holes), square drawing units. */
+export function orientedArea(o: FlatRings): number {
+  let a = 0;
+  for (let k = 0; k + 1 < o.start.length; k++) a += signedAreaOf(o, k);
+  return a;
+}
+
 /** Filled area of rings after nesting (outer boundaries minus holes), square drawing units. */
 export function filledArea(rings: Ring[]): number {
-  const clean = cleanRings(rings);
-  const depth = nestingDepths(clean);
-  return clean.reduce((acc, r, i) => acc + (depth[i] % 2 === 0 ? 1 : -1) * Math.abs(signedArea(r)), 0);
+  return orientedArea(orientFlat(flatten(rings)));
 }
 
 /** Rings cleaned and oriented so the filled side is on the left of every edge, with their containment depths. */
@@ -125,19 +193,8 @@ export interface OrientedRings {
 
 /** Clean the rings, find how deeply each is nested and orient each so the filled side is on its left. */
 export function orientRings(rings: Ring[]): OrientedRings {
-  const clean = cleanRings(rings);
-  const depth = nestingDepths(clean);
-  const oriented = clean.map((r, i) => {
-    const ccw = signedArea(r) > 0;
-    const wantCcw = depth[i] % 2 === 0;
-    return ccw === wantCcw ? r : r.slice().reverse();
-  });
-  return { rings: oriented, depth };
-}
-
-/** Filled area of oriented rings (each ring's signed area is positive for filled, negative for holes), square drawing units. */
-export function orientedArea(o: OrientedRings): number {
-  return o.rings.reduce((acc, r) => acc + signedArea(r), 0);
+  const o = orientFlat(flatten(rings));
+  return { rings: unflatten(o), depth: o.depth };
 }
 
 /**
