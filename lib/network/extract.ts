@@ -628,7 +628,6 @@ function buildNetwork(drawing: DxfDrawing, plan: LayerPlan, snapM: number, mpu: 
       const { src } = mask;
       const read = readOutlineLayer(mask.rings);
       maskRings.push({ layer: l.name, flat: mask.rings });
-      outlines.delete(l.name);
       const li = indexOfLayer(layer);
       const ti = indexOfType(mask.type);
       works.reserve(works.n + read.count);

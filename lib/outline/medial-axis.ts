@@ -105,14 +105,7 @@ export function extractMedialAxis(rings: Ring[] | FlatRings, stepUnits?: number,
   const notes: string[] = [];
   const flat = Array.isArray(rings) ? flatten(rings) : rings;
   // The drawn perimeter (rings dropped as degenerate included), for the first sampling step and its floor.
-  let perimeter = 0;
-  for (let k = 0; k + 1 < flat.start.length; k++) {
-    const i0 = flat.start[k], i1 = flat.start[k + 1];
-    for (let e = i0; e < i1; e++) {
-      const nx = e + 1 === i1 ? i0 : e + 1;
-      perimeter += norm(flat.xy[2 * nx] - flat.xy[2 * e], flat.xy[2 * nx + 1] - flat.xy[2 * e + 1]);
-    }
-  }
+  const perimeter = perimeterOf(flat);
   const prep = orientFlat(flat);
   let step = stepUnits;
   if (step === undefined) {
@@ -242,6 +235,19 @@ interface RingEdges {
   perimeter: number;
 }
 
+/** Total length of the rings' edges (each ring closed back to its first point). */
+function perimeterOf(f: FlatRings): number {
+  let perimeter = 0;
+  for (let k = 0; k + 1 < f.start.length; k++) {
+    const i0 = f.start[k], i1 = f.start[k + 1];
+    for (let e = i0; e < i1; e++) {
+      const nx = e + 1 === i1 ? i0 : e + 1;
+      perimeter += norm(f.xy[2 * nx] - f.xy[2 * e], f.xy[2 * nx + 1] - f.xy[2 * e + 1]);
+    }
+  }
+  return perimeter;
+}
+
 /** The rings' edges, ring by ring (ring k's from its point k: edge e runs from point e to the next, wrapping). */
 function edgesOf(f: FlatRings): RingEdges {
   const n = f.start.length - 1;
@@ -249,21 +255,18 @@ function edgesOf(f: FlatRings): RingEdges {
   const edges = new Float64Array(4 * nE);
   const ringOfEdge = new Int32Array(nE);
   const xy = f.xy;
-  let perimeter = 0;
   for (let k = 0; k < n; k++) {
     const i0 = f.start[k], i1 = f.start[k + 1];
     for (let e = i0; e < i1; e++) {
       const nx = e + 1 === i1 ? i0 : e + 1;
-      const ax = xy[2 * e], ay = xy[2 * e + 1], bx = xy[2 * nx], by = xy[2 * nx + 1];
-      perimeter += norm(bx - ax, by - ay);
-      edges[4 * e] = ax;
-      edges[4 * e + 1] = ay;
-      edges[4 * e + 2] = bx;
-      edges[4 * e + 3] = by;
+      edges[4 * e] = xy[2 * e];
+      edges[4 * e + 1] = xy[2 * e + 1];
+      edges[4 * e + 2] = xy[2 * nx];
+      edges[4 * e + 3] = xy[2 * nx + 1];
       ringOfEdge[e] = k;
     }
   }
-  return { edges, ringEdgeStart: f.start, ringOfEdge, perimeter };
+  return { edges, ringEdgeStart: f.start, ringOfEdge, perimeter: perimeterOf(f) };
 }
 
 /** Distances from an edge's start at which it is sampled inside (0 < d < len): evenly, at most `spacing` apart. */

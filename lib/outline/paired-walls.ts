@@ -76,14 +76,18 @@ export function readPairedWalls(prep: { depth: number[] }, edges: Float64Array, 
     if (b < 0) return null;
     if (Math.abs(ux[a] * uy[b] - uy[a] * ux[b]) <= PARALLEL_SIN && ux[a] * ux[b] + uy[a] * uy[b] < 0) hit[a] = b;
   }
-  // Each pair (lo, hi), lo < hi, found from either side, once, in order of lo then hi: grouped by lo with a
-  // counting sort (bucket), each group (one or two pairs as a rule) put in order by insertion.
-  const loStart = new Int32Array(nE + 1);
-  for (let a = 0; a < nE; a++) if (hit[a] >= 0) loStart[Math.min(a, hit[a]) + 1]++;
-  for (let e = 0; e < nE; e++) loStart[e + 1] += loStart[e];
-  const his = new Int32Array(loStart[nE]);
-  const fill = loStart.slice(0, nE);
-  for (let a = 0; a < nE; a++) if (hit[a] >= 0) his[fill[Math.min(a, hit[a])]++] = Math.max(a, hit[a]);
+  // Each pair (lo, hi), lo < hi, found from either side, once, in order of lo then hi: grouped by lo with the same
+  // counting sort as the joints (bucket), each group (one or two pairs as a rule) put in order by insertion.
+  let nP = 0;
+  for (let a = 0; a < nE; a++) if (hit[a] >= 0) nP++;
+  const pairLo = new Int32Array(nP), pairHi = new Int32Array(nP);
+  for (let a = 0, k = 0; a < nE; a++) {
+    if (hit[a] < 0) continue;
+    pairLo[k] = Math.min(a, hit[a]);
+    pairHi[k++] = Math.max(a, hit[a]);
+  }
+  const [loStart, byLo] = bucket(pairLo, nE);
+  const his = Int32Array.from(byLo, (k) => pairHi[k]);
 
   // 2. Stretches: the overlap of each pair, kept where nothing else comes within the half-width of its midline.
   const st = new StretchList(his.length);
